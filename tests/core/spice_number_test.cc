@@ -1,0 +1,110 @@
+#include "core/spice_number.h"
+
+#include <gtest/gtest.h>
+
+namespace zvsmap {
+namespace {
+
+// Scale factors and their spelling: ngspice User's Manual, section "Circuit
+// elements and models" / number syntax (from memory): f=1e-15 p=1e-12 n=1e-9
+// u=1e-6 m=1e-3 k=1e3 meg=1e6 g=1e9 t=1e12, case-insensitive, letters after
+// the factor are ignored as a unit.
+class SpiceNumberTest : public ::testing::Test {
+ protected:
+  static double Parse(const std::string& text) {
+    std::optional<double> v = ParseSpiceNumber(text);
+    EXPECT_TRUE(v.has_value()) << "'" << text << "' should parse";
+    return v.value_or(-12345);
+  }
+  static bool Rejected(const std::string& text) { return !ParseSpiceNumber(text).has_value(); }
+};
+
+TEST_F(SpiceNumberTest, PlainNumbers) {
+  // C strtod syntax (ISO C99 7.20.1.3), from memory.
+  EXPECT_DOUBLE_EQ(Parse("48"), 48.0);
+  EXPECT_DOUBLE_EQ(Parse("-3.5"), -3.5);
+  EXPECT_DOUBLE_EQ(Parse("+.5"), 0.5);
+  EXPECT_DOUBLE_EQ(Parse("5."), 5.0);
+  EXPECT_DOUBLE_EQ(Parse("1e-4"), 1e-4);
+  EXPECT_DOUBLE_EQ(Parse("2.5E3"), 2500.0);
+  EXPECT_DOUBLE_EQ(Parse("  12  "), 12.0);
+}
+
+TEST_F(SpiceNumberTest, EveryScaleFactor) {
+  // ngspice manual scale factors (from memory).
+  EXPECT_DOUBLE_EQ(Parse("1f"), 1e-15);
+  EXPECT_DOUBLE_EQ(Parse("1p"), 1e-12);
+  EXPECT_DOUBLE_EQ(Parse("1n"), 1e-9);
+  EXPECT_DOUBLE_EQ(Parse("1u"), 1e-6);
+  EXPECT_DOUBLE_EQ(Parse("1m"), 1e-3);
+  EXPECT_DOUBLE_EQ(Parse("1k"), 1e3);
+  EXPECT_DOUBLE_EQ(Parse("1meg"), 1e6);
+  EXPECT_DOUBLE_EQ(Parse("1g"), 1e9);
+  EXPECT_DOUBLE_EQ(Parse("1t"), 1e12);
+}
+
+TEST_F(SpiceNumberTest, MilliIsNotMega) {
+  // SPICE's classic trap: "m" is milli, "meg" is mega (ngspice manual, from memory).
+  EXPECT_DOUBLE_EQ(Parse("1m"), 1e-3);
+  EXPECT_DOUBLE_EQ(Parse("1meg"), 1e6);
+  EXPECT_DOUBLE_EQ(Parse("1MEG"), 1e6);
+  EXPECT_DOUBLE_EQ(Parse("1Meg"), 1e6);
+  EXPECT_DOUBLE_EQ(Parse("1M"), 1e-3);
+  EXPECT_DOUBLE_EQ(Parse("200K"), 200e3);
+}
+
+TEST_F(SpiceNumberTest, UnitLettersAfterTheFactorAreIgnored) {
+  // ngspice manual: "10V", "10Volts" and "10" are the same number (from memory).
+  EXPECT_DOUBLE_EQ(Parse("10nF"), 10e-9);
+  EXPECT_DOUBLE_EQ(Parse("2.2u"), 2.2e-6);
+  EXPECT_DOUBLE_EQ(Parse("2.2uH"), 2.2e-6);
+  EXPECT_DOUBLE_EQ(Parse("48V"), 48.0);
+  EXPECT_DOUBLE_EQ(Parse("1megHz"), 1e6);
+  EXPECT_DOUBLE_EQ(Parse("4.7e-3k"), 4.7);
+}
+
+TEST_F(SpiceNumberTest, RejectsJunk) {
+  // common practice, no source: anything that is not one number is refused.
+  EXPECT_TRUE(Rejected(""));
+  EXPECT_TRUE(Rejected("   "));
+  EXPECT_TRUE(Rejected("abc"));
+  EXPECT_TRUE(Rejected("1.2.3"));
+  EXPECT_TRUE(Rejected("1e"));
+  EXPECT_TRUE(Rejected("1e+"));
+  EXPECT_TRUE(Rejected("inf"));
+  EXPECT_TRUE(Rejected("-inf"));
+  EXPECT_TRUE(Rejected("nan"));
+  EXPECT_TRUE(Rejected("0x10"));
+  EXPECT_TRUE(Rejected("10 k"));
+  EXPECT_TRUE(Rejected("5u3"));
+  EXPECT_TRUE(Rejected("k"));
+  EXPECT_TRUE(Rejected("1e999"));
+}
+
+TEST_F(SpiceNumberTest, MilIsRefused) {
+  // The header's contract: "mil" (SPICE's 25.4e-6) is not accepted, so it must
+  // not silently read as milli.
+  EXPECT_TRUE(Rejected("10mil"));
+}
+
+TEST_F(SpiceNumberTest, FormatNumberReadsBack) {
+  // %.12g, ISO C printf (from memory).
+  EXPECT_EQ(FormatNumber(48), "48");
+  EXPECT_EQ(FormatNumber(2.2e-6), "2.2e-06");
+  EXPECT_EQ(FormatNumber(0.1 + 0.2), "0.3");
+}
+
+TEST_F(SpiceNumberTest, FormatEngineeringUsesSpiceFactors) {
+  // Suffixes as in the ngspice manual (from memory); "meg", not "M".
+  EXPECT_EQ(FormatEngineering(4.7e-6), "4.7u");
+  EXPECT_EQ(FormatEngineering(500e3), "500k");
+  EXPECT_EQ(FormatEngineering(1e6), "1meg");
+  EXPECT_EQ(FormatEngineering(2e-9), "2n");
+  EXPECT_EQ(FormatEngineering(0.47e-6), "470n");
+  EXPECT_EQ(FormatEngineering(-12), "-12");
+  EXPECT_EQ(FormatEngineering(0), "0");
+  EXPECT_EQ(FormatEngineering(1.23456e3), "1.235k");
+}
+
+}  // namespace
+}  // namespace zvsmap
