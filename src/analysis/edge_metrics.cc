@@ -1,0 +1,23 @@
+#include "analysis/edge_metrics.h"
+
+#include <limits>
+
+namespace zvsmap {
+
+const char* ZvsClassName(ZvsClass c) {
+  switch (c) {
+    case ZvsClass::kFull: return "full";
+    case ZvsClass::kPartial: return "partial";
+    case ZvsClass::kHard: return "hard";
+    case ZvsClass::kUnknown: break;
+  }
+  return "unknown";
+}
+
+double EdgeMeasurement::Get(const std::string& column) const {
+  for (const auto& m : metrics)
+    if (m.column == column) return m.value;
+  return std::numeric_limits<double>::quiet_NaN();
+}
+
+}  // namespace zvsmap

@@ -1,0 +1,18 @@
+// The subcommands of the zvsmap front end, one file each.
+#pragma once
+
+#include <CLI/App.hpp>
+
+namespace zvsmap::cli {
+
+/// Adds `zvsmap run`; `*exit_code` receives the command's exit status.
+void AddRunCommand(CLI::App& app, int* exit_code);
+/// Adds `zvsmap render` (print one point's netlist).
+void AddRenderCommand(CLI::App& app, int* exit_code);
+/// Adds `zvsmap points` (list the expanded points).
+void AddPointsCommand(CLI::App& app, int* exit_code);
+
+/// Prints diagnostics as "zvsmap: error: ..." on stderr.
+void PrintErrors(const std::vector<zvsmap::Diagnostic>& errors);
+
+}  // namespace zvsmap::cli

@@ -1,0 +1,89 @@
+#include "core/spice_number.h"
+
+#include <cctype>
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+
+namespace zvsmap {
+
+namespace {
+
+std::string Lower(std::string s) {
+  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return s;
+}
+
+}  // namespace
+
+std::optional<double> ParseSpiceNumber(const std::string& raw) {
+  // Trim surrounding blanks.
+  size_t b = raw.find_first_not_of(" \t\r\n");
+  if (b == std::string::npos) return std::nullopt;
+  size_t e = raw.find_last_not_of(" \t\r\n");
+  std::string text = raw.substr(b, e - b + 1);
+
+  const char* start = text.c_str();
+  char* end = nullptr;
+  double value = std::strtod(start, &end);
+  if (end == start) return std::nullopt;
+  std::string rest = Lower(std::string(end));
+  // strtod accepts "inf"/"nan" and hex; refuse them.
+  std::string head = Lower(std::string(start, static_cast<const char*>(end)));
+  if (head.find_first_of("xinp") != std::string::npos) return std::nullopt;
+
+  // "1e" or "2e+": strtod stopped before an incomplete exponent; that is a
+  // typo, not a unit. "mil" (SPICE's 25.4u) is refused rather than read as milli.
+  if (!rest.empty() && rest[0] == 'e') return std::nullopt;
+  if (rest.compare(0, 3, "mil") == 0) return std::nullopt;
+
+  double scale = 1.0;
+  size_t used = 0;
+  if (rest.compare(0, 3, "meg") == 0) {
+    scale = 1e6;
+    used = 3;
+  } else if (!rest.empty()) {
+    switch (rest[0]) {
+      case 'f': scale = 1e-15; used = 1; break;
+      case 'p': scale = 1e-12; used = 1; break;
+      case 'n': scale = 1e-9; used = 1; break;
+      case 'u': scale = 1e-6; used = 1; break;
+      case 'm': scale = 1e-3; used = 1; break;
+      case 'k': scale = 1e3; used = 1; break;
+      case 'g': scale = 1e9; used = 1; break;
+      case 't': scale = 1e12; used = 1; break;
+      default: break;
+    }
+  }
+  // What follows the suffix may only be a unit annotation made of letters.
+  for (size_t i = used; i < rest.size(); ++i) {
+    if (!std::isalpha(static_cast<unsigned char>(rest[i]))) return std::nullopt;
+  }
+  value *= scale;
+  if (!std::isfinite(value)) return std::nullopt;
+  return value;
+}
+
+std::string FormatNumber(double value) {
+  char buf[64];
+  std::snprintf(buf, sizeof buf, "%.12g", value);
+  return buf;
+}
+
+std::string FormatEngineering(double value, int digits) {
+  if (value == 0 || !std::isfinite(value)) return FormatNumber(value);
+  static const struct { double scale; const char* suffix; } kSteps[] = {
+      {1e12, "t"}, {1e9, "g"}, {1e6, "meg"}, {1e3, "k"}, {1, ""},
+      {1e-3, "m"}, {1e-6, "u"}, {1e-9, "n"}, {1e-12, "p"}, {1e-15, "f"}};
+  double mag = std::fabs(value);
+  for (const auto& s : kSteps) {
+    if (mag >= s.scale * 0.9999999) {
+      char buf[64];
+      std::snprintf(buf, sizeof buf, "%.*g%s", digits, value / s.scale, s.suffix);
+      return buf;
+    }
+  }
+  return FormatNumber(value);
+}
+
+}  // namespace zvsmap

@@ -1,0 +1,165 @@
+#include "netlist/render.h"
+
+#include <cctype>
+#include <set>
+#include <sstream>
+
+#include "core/spice_number.h"
+
+namespace zvsmap {
+
+namespace {
+
+std::string Lower(std::string s) {
+  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return s;
+}
+
+std::string Trim(const std::string& s) {
+  size_t b = s.find_first_not_of(" \t\r");
+  if (b == std::string::npos) return "";
+  size_t e = s.find_last_not_of(" \t\r");
+  return s.substr(b, e - b + 1);
+}
+
+// The dot-command a line starts with (".tran", ".param", ...), lower-case, or "".
+std::string DotCommand(const std::string& line) {
+  std::string t = Trim(line);
+  if (t.empty() || t[0] != '.') return "";
+  size_t end = 1;
+  while (end < t.size() && (std::isalnum(static_cast<unsigned char>(t[end])) || t[end] == '_'))
+    ++end;
+  return Lower(t.substr(0, end));
+}
+
+// Evaluates a template expression (names lower-cased, as SPICE treats them).
+bool EvalTemplateExpr(const std::string& expr, const Variables& vars, const SourceLocation& where,
+                      const std::string& what, double* value, Diagnostic* error) {
+  std::string message;
+  int column = 0;
+  if (EvaluateExpression(Lower(expr), vars, value, &message, &column)) return true;
+  *error = Diagnostic{where, what + " '" + expr + "': " + message, {}};
+  return false;
+}
+
+}  // namespace
+
+bool ResolveParams(const Template& tmpl, const std::vector<ParamValue>& values,
+                   Variables* resolved, Diagnostic* error) {
+  resolved->clear();
+  Variables given;
+  for (const auto& v : values) given[Lower(v.name)] = v.value;
+  for (const auto& p : tmpl.params) {
+    auto it = given.find(p.name);
+    if (it != given.end()) {
+      (*resolved)[p.name] = it->second;
+      continue;
+    }
+    double value = 0;
+    if (!EvalTemplateExpr(p.expression, *resolved, p.where, "cannot evaluate .param " + p.name,
+                          &value, error)) {
+      return false;
+    }
+    (*resolved)[p.name] = value;
+  }
+  // Values for names the template does not declare are a caller bug (the sweep
+  // stage checks names against the template before anything runs).
+  for (const auto& [name, value] : given) {
+    if (!resolved->count(name)) {
+      *error = Diagnostic{{tmpl.path, 0, 0}, "template declares no parameter '" + name + "'", {}};
+      return false;
+    }
+  }
+  return true;
+}
+
+bool ResolvePeriod(const Template& tmpl, const Variables& resolved, double* period_s,
+                   Diagnostic* error) {
+  if (!EvalTemplateExpr(tmpl.period_expression, resolved, tmpl.period_where,
+                        "cannot evaluate the period", period_s, error)) {
+    return false;
+  }
+  if (!(*period_s > 0)) {
+    *error = Diagnostic{tmpl.period_where,
+                        "the period evaluates to " + FormatNumber(*period_s) + " s, not > 0", {}};
+    return false;
+  }
+  return true;
+}
+
+std::string RenderNetlist(const Template& tmpl, const Variables& resolved,
+                          const TranSettings& tran, const std::vector<std::string>& vectors) {
+  static const std::set<std::string> kDropped = {".tran", ".save",  ".print", ".plot", ".probe",
+                                                 ".meas", ".measure", ".end",  ".four", ".op"};
+  std::ostringstream out;
+  bool first = true;
+  bool in_control = false;
+  bool params_written = false;
+  for (const auto& [line, text] : tmpl.lines) {
+    (void)line;
+    std::string cmd = DotCommand(text);
+    if (first) {
+      // SPICE treats the first line as the title.
+      out << text << "\n* rendered by zvsmap " << ZVSMAP_VERSION << " from " << tmpl.path << "\n";
+      first = false;
+      continue;
+    }
+    if (cmd == ".control") in_control = true;
+    if (in_control) {
+      if (cmd == ".endc") in_control = false;
+      continue;
+    }
+    if (kDropped.count(cmd)) continue;
+    if (cmd == ".param") {
+      // All parameters, resolved to numbers, where the first .param stood.
+      if (!params_written) {
+        for (const auto& p : tmpl.params) {
+          out << ".param " << p.name << "=" << FormatNumber(resolved.at(p.name)) << "\n";
+        }
+        params_written = true;
+      }
+      continue;
+    }
+    out << text << "\n";
+  }
+  out << "* zvsmap analysis settings\n";
+  out << ".options method=gear reltol=" << FormatNumber(tran.reltol) << "\n";
+  if (!vectors.empty()) {
+    out << ".save";
+    for (const auto& v : vectors) out << " " << v;
+    out << "\n";
+  }
+  double tstep = tran.max_step_s > 0 ? tran.max_step_s : tran.tstop_s / 1000;
+  out << ".tran " << FormatNumber(tstep) << " " << FormatNumber(tran.tstop_s) << " "
+      << FormatNumber(tran.tstart_s) << " " << FormatNumber(tstep) << " uic\n";
+  out << ".end\n";
+  return out.str();
+}
+
+std::vector<std::string> VectorsToSave(const Template& tmpl) {
+  std::vector<std::string> out;
+  auto add = [&](const std::string& v) {
+    for (const auto& x : out)
+      if (x == v) return;
+    out.push_back(v);
+  };
+  auto node = [&](const std::string& n) {
+    if (!n.empty() && n != "0" && n != "gnd") add("v(" + n + ")");
+  };
+  for (const auto& c : tmpl.cells) {
+    node(c.node);
+    node(c.rail_high);
+    node(c.rail_low);
+    add("i(" + c.current + ")");
+    node(c.high_cmd);
+    node(c.low_cmd);
+    node(c.high_gate);
+    node(c.high_source);
+    node(c.low_gate);
+    node(c.low_source);
+  }
+  for (const auto& s : tmpl.states) add(s.vector);
+  return out;
+}
+
+}  // namespace zvsmap

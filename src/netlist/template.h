@@ -1,0 +1,69 @@
+// A SPICE netlist template: its .param defaults and zvsmap's annotations
+// (switching period, commutation cells, slow states). See README "Templates".
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "core/diagnostic.h"
+
+namespace zvsmap {
+
+/// One `.param name = value` declaration, in file order.
+struct ParamDecl {
+  std::string name;        ///< lower-case (SPICE names are case-insensitive)
+  std::string expression;  ///< without braces/quotes; a number or an expression
+  SourceLocation where;
+};
+
+/// A half-bridge commutation cell declared by `*@ cell NAME key=value ...`.
+/// Node names are lower-case; "0" is ground.
+struct CellSpec {
+  std::string name;
+  std::string node;        ///< switch node
+  std::string rail_high;   ///< rail the node reaches when the high switch conducts
+  std::string rail_low;    ///< rail the node reaches when the low switch conducts
+  std::string current;     ///< zero-volt source; i(current) > 0 flows OUT of the node
+  std::string high, low;   ///< switch instance names (subcircuits)
+  std::string high_cmd, low_cmd;          ///< logic command nodes, 0 V off / 1 V on
+  std::string high_gate, high_source;     ///< optional: gate and source nodes
+  std::string low_gate, low_source;
+  std::string high_dead, low_dead;        ///< optional: params of the dead time before each turn-on
+  SourceLocation where;
+};
+
+/// A slow state for settling: the vector read at the end of a period and the
+/// .param that sets its initial condition (`*@ state i(l1) init=il0`).
+struct StateSpec {
+  std::string vector;      ///< lower-case, e.g. "i(l1)", "v(out)"
+  std::string init_param;  ///< lower-case
+  SourceLocation where;
+};
+
+/// A parsed template. `lines` are the logical lines (continuations joined),
+/// each with the physical line it started on.
+struct Template {
+  std::string path;
+  std::vector<std::pair<int, std::string>> lines;
+  std::vector<ParamDecl> params;
+  std::string period_expression;
+  SourceLocation period_where;
+  std::vector<CellSpec> cells;
+  std::vector<StateSpec> states;
+
+  /// The names of all declared parameters, in file order.
+  std::vector<std::string> ParamNames() const;
+  /// The declaration of `name` (case-insensitive), or nullptr.
+  const ParamDecl* FindParam(const std::string& name) const;
+};
+
+/// Parses template text; `path` names it in messages. Fails on a malformed
+/// annotation (unknown key, missing required key, unknown cell reference to an
+/// undeclared parameter) or a missing `*@ period` / `*@ cell`.
+bool ParseTemplateText(const std::string& text, const std::string& path, Template* out,
+                       Diagnostic* error);
+
+/// Reads and parses a template file.
+bool LoadTemplate(const std::string& path, Template* out, Diagnostic* error);
+
+}  // namespace zvsmap

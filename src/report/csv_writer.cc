@@ -1,0 +1,81 @@
+#include "report/csv_writer.h"
+
+#include <cmath>
+#include <cstdio>
+
+namespace zvsmap {
+
+std::string CsvField(const std::string& text) {
+  if (text.find_first_of(",\"\r\n") == std::string::npos) return text;
+  std::string out = "\"";
+  for (char c : text) {
+    if (c == '"') out += '"';
+    out += c;
+  }
+  out += '"';
+  return out;
+}
+
+std::string CsvNumber(double value) {
+  if (std::isnan(value)) return "";
+  char buf[40];
+  std::snprintf(buf, sizeof buf, "%.9g", value);
+  return buf;
+}
+
+void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
+                   const std::vector<PointResult>& results) {
+  std::vector<std::string> params;
+  if (!points.empty()) {
+    for (const auto& v : points.front().values) params.push_back(v.name);
+  }
+  std::vector<std::string> metrics;
+  for (const auto& r : results) {
+    for (const auto& e : r.edges) {
+      for (const auto& m : e.metrics) {
+        bool seen = false;
+        for (const auto& c : metrics) seen = seen || c == m.column;
+        if (!seen) metrics.push_back(m.column);
+      }
+    }
+  }
+
+  // "\r\n" line ends, as RFC 4180 specifies.
+  const char* eol = "\r\n";
+  out << "point";
+  for (const auto& p : params) out << ',' << CsvField(p);
+  out << ",cell,edge,zvs_class";
+  for (const auto& m : metrics) out << ',' << CsvField(m);
+  out << ",status,reason,wall_time_s" << eol;
+
+  for (size_t i = 0; i < points.size() && i < results.size(); ++i) {
+    const Point& point = points[i];
+    const PointResult& r = results[i];
+    auto prefix = [&] {
+      out << point.index;
+      for (const auto& name : params) {
+        auto v = point.Get(name);
+        out << ',' << (v ? CsvNumber(*v) : "");
+      }
+    };
+    auto suffix = [&] {
+      out << ',' << PointStatusName(r.status) << ',' << CsvField(r.reason) << ','
+          << CsvNumber(r.wall_s) << eol;
+    };
+    if (r.edges.empty()) {
+      prefix();
+      out << ",,,";
+      for (size_t k = 0; k < metrics.size(); ++k) out << ',';
+      suffix();
+      continue;
+    }
+    for (const auto& e : r.edges) {
+      prefix();
+      out << ',' << CsvField(e.cell) << ',' << CsvField(e.edge) << ',' << ZvsClassName(e.zvs);
+      for (const auto& m : metrics) out << ',' << CsvNumber(e.Get(m));
+      suffix();
+    }
+  }
+}
+
+}  // namespace zvsmap

@@ -1,0 +1,40 @@
+// The per-point pipeline: render -> simulate -> find and measure edges.
+#pragma once
+
+#include <string>
+
+#include "core/diagnostic.h"
+#include "netlist/render.h"
+#include "netlist/template.h"
+#include "run/point_result.h"
+#include "sim/simulator.h"
+#include "sweep/point.h"
+#include "sweep/sweep_spec.h"
+
+namespace zvsmap {
+
+/// Evaluates points of one sweep. Holds no simulator: the caller passes the
+/// one its process owns (a worker's ngspice, or a fake in tests).
+class PointEvaluator {
+ public:
+  PointEvaluator(const SweepSpec& spec, const Template& tmpl) : spec_(spec), tmpl_(tmpl) {}
+
+  /// Renders the point's netlist as it will be simulated (also for the user
+  /// to run in plain ngspice). Fails when a parameter cannot be evaluated.
+  bool Render(const Point& point, std::string* netlist, Diagnostic* error) const;
+
+  /// Runs the whole per-point pipeline. Never throws for bad circuits: the
+  /// result's status and reason say what went wrong. When `settled` is not
+  /// null it receives the measured periods' waveforms (for plots and checks).
+  PointResult Evaluate(const Point& point, Simulator& simulator,
+                       Waveforms* settled = nullptr) const;
+
+  /// The transient settings used for a resolved point with period `period_s`.
+  TranSettings TranFor(const Variables& resolved, double period_s) const;
+
+ private:
+  const SweepSpec& spec_;
+  const Template& tmpl_;
+};
+
+}  // namespace zvsmap

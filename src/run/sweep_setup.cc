@@ -1,0 +1,32 @@
+#include "run/sweep_setup.h"
+
+#include "sweep/sweep_expand.h"
+#include "sweep/sweep_parser.h"
+
+namespace zvsmap {
+
+bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, PreparedSweep* out,
+                  std::vector<Diagnostic>* errors) {
+  Diagnostic error;
+  if (!ParseSweepFile(sweep_path, &out->spec, &error)) {
+    errors->push_back(error);
+    return false;
+  }
+  if (max_points_override > 0) out->spec.max_points = max_points_override;
+  if (!LoadTemplate(out->spec.template_path, &out->tmpl, &error)) {
+    errors->push_back(error);
+    return false;
+  }
+  std::vector<Diagnostic> unknown = CheckParamsKnown(out->spec, out->tmpl.ParamNames());
+  if (!unknown.empty()) {
+    errors->insert(errors->end(), unknown.begin(), unknown.end());
+    return false;
+  }
+  if (!ExpandSweep(out->spec, &out->points, &error)) {
+    errors->push_back(error);
+    return false;
+  }
+  return true;
+}
+
+}  // namespace zvsmap

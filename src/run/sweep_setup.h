@@ -1,0 +1,28 @@
+// Loading everything a run needs before any simulation starts.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "core/diagnostic.h"
+#include "netlist/template.h"
+#include "sweep/point.h"
+#include "sweep/sweep_spec.h"
+
+namespace zvsmap {
+
+/// A sweep ready to run: the parsed file, its template and its points.
+struct PreparedSweep {
+  SweepSpec spec;
+  Template tmpl;
+  std::vector<Point> points;
+};
+
+/// Parses the sweep file, loads its template, checks every parameter name
+/// against the template and expands the points. `max_points_override` > 0
+/// replaces the file's limit. All problems found are returned (at least one
+/// on failure); nothing is simulated.
+bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, PreparedSweep* out,
+                  std::vector<Diagnostic>* errors);
+
+}  // namespace zvsmap

@@ -1,0 +1,33 @@
+// One operating point of a sweep.
+#pragma once
+
+#include <cstddef>
+#include <optional>
+#include <string>
+#include <utility>
+#include <vector>
+
+namespace zvsmap {
+
+/// A named parameter value.
+struct ParamValue {
+  std::string name;
+  double value = 0;
+};
+
+/// One operating point: its index in the expanded sweep (stable for a given
+/// sweep file) and the parameter values that differ from the template's
+/// defaults, in a fixed order (fixed values, then axes in file order, then
+/// derived values).
+struct Point {
+  size_t index = 0;
+  std::vector<ParamValue> values;
+
+  /// The value of `name` (compared case-insensitively, as SPICE does), if this
+  /// point sets it.
+  std::optional<double> Get(const std::string& name) const;
+  /// "Iout=2 L=1u ..." (engineering suffixes, 4 significant digits) — for messages.
+  std::string Describe() const;
+};
+
+}  // namespace zvsmap

@@ -1,0 +1,18 @@
+// Expansion of a SweepSpec into its operating points.
+#pragma once
+
+#include <vector>
+
+#include "core/diagnostic.h"
+#include "sweep/point.h"
+#include "sweep/sweep_spec.h"
+
+namespace zvsmap {
+
+/// Expands the crossed grid (first group slowest), lockstep groups advancing
+/// together, fixed values first in each point, derived values evaluated last.
+/// Fails (with the derived value's location) when an expression cannot be
+/// evaluated, or when the grid exceeds `spec.max_points`.
+bool ExpandSweep(const SweepSpec& spec, std::vector<Point>* points, Diagnostic* error);
+
+}  // namespace zvsmap

@@ -1,0 +1,85 @@
+// What a sweep file says, after parsing and validation: the template, the
+// axes, fixed and derived values, simulation settings and the ZVS criterion.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "core/diagnostic.h"
+
+namespace zvsmap {
+
+/// One swept parameter and its values, in the order they are visited.
+struct AxisSpec {
+  std::string param;
+  std::vector<double> values;
+  SourceLocation where;
+};
+
+/// Axes that combine as one grid dimension. A plain <axis> is a group of one;
+/// a <lockstep> group advances all its axes together (equal lengths).
+struct AxisGroup {
+  std::vector<AxisSpec> axes;
+  bool lockstep = false;
+  SourceLocation where;
+  size_t size() const { return axes.empty() ? 0 : axes.front().values.size(); }
+};
+
+/// A parameter held at one value for the whole sweep.
+struct FixedValue {
+  std::string param;
+  double value = 0;
+  SourceLocation where;
+};
+
+/// A parameter computed per point from an expression over other parameters
+/// (evaluated with core/expression; e.g. duty from Vout and Vin).
+struct DerivedValue {
+  std::string param;
+  std::string expression;
+  SourceLocation where;
+};
+
+/// How each point is simulated.
+struct SimulationSettings {
+  int settle_periods = 60;      ///< periods simulated before the measured one (brute force)
+  int measure_periods = 2;      ///< periods kept at the end; each edge is taken from its latest complete occurrence
+  double max_step_s = 0;        ///< .tran step bound; 0 = derived from period and dead time
+  double reltol = 1e-4;         ///< ngspice RELTOL
+  double timeout_s = 0;         ///< per-point wall-clock limit; 0 = derived
+  SourceLocation where;
+};
+
+/// The ZVS criterion: the incoming switch's voltage at its turn-on command must
+/// not exceed `value` volts (kAbsolute) or `value` times the rail (kFraction).
+struct ZvsCriterion {
+  enum class Kind { kAbsolute, kFraction };
+  Kind kind = Kind::kFraction;
+  double value = 0.1;
+  /// The residual-voltage limit for a given rail voltage.
+  double Limit(double rail_v) const { return kind == Kind::kAbsolute ? value : value * rail_v; }
+  /// Human-readable form written into outputs, e.g. "v_turn_on <= 10% of rail".
+  std::string Describe() const;
+};
+
+/// A parsed, validated sweep file.
+struct SweepSpec {
+  std::string path;           ///< the sweep file as given
+  std::string template_path;  ///< resolved relative to the sweep file's folder
+  SourceLocation template_where;
+  std::vector<FixedValue> fixed;
+  std::vector<AxisGroup> groups;    ///< in file order; the first varies slowest
+  std::vector<DerivedValue> derived;
+  SimulationSettings simulation;
+  ZvsCriterion zvs;
+  size_t max_points = 10000;  ///< grid size limit (file's <limits max-points>, CLI can override)
+  SourceLocation limits_where;  ///< the <limits> element, else the <sweep> root (for the size error)
+
+  /// Number of points of the crossed grid (product of group sizes).
+  size_t GridSize() const;
+  /// Every parameter the sweep names (fixed, axes, derived) with where it is named.
+  std::vector<std::pair<std::string, SourceLocation>> NamedParams() const;
+};
+
+}  // namespace zvsmap
