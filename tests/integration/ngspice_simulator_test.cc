@@ -1,6 +1,7 @@
 // Integration tests of NgspiceSimulator against the real ngspice library.
-// ngspice keeps one global instance per process: the suite shares one
-// simulator, and the one case that breaks ngspice for good runs in a child.
+// ngspice keeps one global instance per process: every test binary shares one
+// simulator (testing/shared_ngspice.h), and the one case that breaks ngspice
+// for good runs in a forked child.
 #include "sim/ngspice_simulator.h"
 
 #include <gtest/gtest.h>
@@ -12,6 +13,8 @@
 #include <cstdlib>
 #include <memory>
 #include <string>
+
+#include "testing/shared_ngspice.h"
 
 namespace zvsmap {
 namespace {
@@ -31,15 +34,9 @@ const char kRcStep[] =
 
 class NgspiceSimulatorTest : public ::testing::Test {
  protected:
-  static void SetUpTestSuite() { sim_ = new NgspiceSimulator(); }
-  static void TearDownTestSuite() {
-    delete sim_;
-    sim_ = nullptr;
-  }
-  static NgspiceSimulator* sim_;
+  void SetUp() override { sim_ = &testing_support::SharedNgspice(); }
+  NgspiceSimulator* sim_ = nullptr;
 };
-
-NgspiceSimulator* NgspiceSimulatorTest::sim_ = nullptr;
 
 TEST_F(NgspiceSimulatorTest, RcStepResponse) {
   SimulationOutput out = sim_->Run(kRcStep, {"v(out)", "V(in)"}, 5e-6);
