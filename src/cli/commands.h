@@ -2,6 +2,9 @@
 #pragma once
 
 #include <CLI/App.hpp>
+#include <vector>
+
+#include "core/diagnostic.h"
 
 namespace zvsmap::cli {
 

@@ -37,7 +37,7 @@ class CommutationTest : public ::testing::Test {
       else if (ph < 0.12e-6) v = 48 * (ph - 0.1e-6) / 20e-9;
       else if (ph < 0.5e-6) v = 48;
       else if (ph < 0.54e-6) v = 48 - 0.7 * 48 * (ph - 0.5e-6) / 40e-9;
-      else if (ph < 0.55e-6) v = 48 * 0.3;
+      else if (ph < 0.551e-6) v = 48 * 0.3;
       else v = 0;
       sw.push_back(v);
     }
