@@ -37,21 +37,21 @@ std::optional<double> ParseSpiceNumber(const std::string& raw) {
   if (!rest.empty() && rest[0] == 'e') return std::nullopt;
   if (rest.compare(0, 3, "mil") == 0) return std::nullopt;
 
-  double scale = 1.0;
+  int exponent = 0;
   size_t used = 0;
   if (rest.compare(0, 3, "meg") == 0) {
-    scale = 1e6;
+    exponent = 6;
     used = 3;
   } else if (!rest.empty()) {
     switch (rest[0]) {
-      case 'f': scale = 1e-15; used = 1; break;
-      case 'p': scale = 1e-12; used = 1; break;
-      case 'n': scale = 1e-9; used = 1; break;
-      case 'u': scale = 1e-6; used = 1; break;
-      case 'm': scale = 1e-3; used = 1; break;
-      case 'k': scale = 1e3; used = 1; break;
-      case 'g': scale = 1e9; used = 1; break;
-      case 't': scale = 1e12; used = 1; break;
+      case 'f': exponent = -15; used = 1; break;
+      case 'p': exponent = -12; used = 1; break;
+      case 'n': exponent = -9; used = 1; break;
+      case 'u': exponent = -6; used = 1; break;
+      case 'm': exponent = -3; used = 1; break;
+      case 'k': exponent = 3; used = 1; break;
+      case 'g': exponent = 9; used = 1; break;
+      case 't': exponent = 12; used = 1; break;
       default: break;
     }
   }
@@ -59,7 +59,16 @@ std::optional<double> ParseSpiceNumber(const std::string& raw) {
   for (size_t i = used; i < rest.size(); ++i) {
     if (!std::isalpha(static_cast<unsigned char>(rest[i]))) return std::nullopt;
   }
-  value *= scale;
+  if (exponent != 0) {
+    // Read "0.47u" as the decimal 0.47e-6 (correctly rounded) rather than
+    // 0.47 * 1e-6, which is one bit off and then differs from "470n".
+    if (head.find('e') == std::string::npos) {
+      std::string exact = head + "e" + std::to_string(exponent);
+      value = std::strtod(exact.c_str(), nullptr);
+    } else {
+      value *= std::pow(10.0, exponent);
+    }
+  }
   if (!std::isfinite(value)) return std::nullopt;
   return value;
 }

@@ -63,6 +63,15 @@ TEST_F(SpiceNumberTest, UnitLettersAfterTheFactorAreIgnored) {
   EXPECT_DOUBLE_EQ(Parse("4.7e-3k"), 4.7);
 }
 
+TEST_F(SpiceNumberTest, SuffixedValuesAreTheNearestDouble) {
+  // "0.47u" means the decimal 0.47e-6; the same number as "470n" and "0.47e-6"
+  // (IEEE 754 round-to-nearest of the decimal value; C99 strtod, from memory).
+  EXPECT_EQ(Parse("0.47u"), 0.47e-6);
+  EXPECT_EQ(Parse("470n"), 0.47e-6);
+  EXPECT_EQ(Parse("2.2u"), 2.2e-6);
+  EXPECT_EQ(Parse("0.1meg"), 1e5);
+}
+
 TEST_F(SpiceNumberTest, RejectsJunk) {
   // common practice, no source: anything that is not one number is refused.
   EXPECT_TRUE(Rejected(""));
