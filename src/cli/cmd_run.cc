@@ -1,11 +1,10 @@
 // `zvsmap run SWEEP --out DIR`: simulate every point and write the reports.
 #include <cstdio>
 #include <filesystem>
-#include <fstream>
 
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
-#include "report/csv_writer.h"
+#include "report/report_set.h"
 #include "run/point_evaluator.h"
 #include "run/sweep_setup.h"
 #include "sim/ngspice_simulator.h"
@@ -60,17 +59,25 @@ void AddRunCommand(CLI::App& app, int* exit_code) {
       }
     }
 
-    std::string csv_path = (std::filesystem::path(opts->out_dir) / "edges.csv").string();
-    std::ofstream csv(csv_path, std::ios::binary);
-    WriteEdgesCsv(csv, sweep.points, results);
-    csv.close();
-    if (!csv) {
-      std::fprintf(stderr, "zvsmap: error: %s: cannot write\n", csv_path.c_str());
+    ReportOutcome outcome;
+    std::string error;
+    if (!WriteReports({sweep.spec, sweep.tmpl, sweep.points, results}, opts->out_dir, &outcome,
+                      &error)) {
+      std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
       *exit_code = kExitInternal;
       return;
     }
-    std::fprintf(stderr, "zvsmap: %zu points, %zu ok, %zu failed; wrote %s\n",
-                 sweep.points.size(), sweep.points.size() - failed, failed, csv_path.c_str());
+    std::fprintf(stderr, "zvsmap: %zu points, %zu ok, %zu failed\n", sweep.points.size(),
+                 sweep.points.size() - failed, failed);
+    for (const auto& f : outcome.files) std::fprintf(stderr, "zvsmap: wrote %s\n", f.c_str());
+    if (failed) {
+      *exit_code = kExitPointsFailed;
+      return;
+    }
+    if (outcome.requirements_failed > 0) {
+      *exit_code = kExitRequirementFailed;
+      return;
+    }
     *exit_code = failed ? kExitPointsFailed : kExitOk;
   });
 }

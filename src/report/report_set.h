@@ -1,0 +1,36 @@
+// Every report of a run, written from the points and their results.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "netlist/template.h"
+#include "run/point_result.h"
+#include "sweep/point.h"
+#include "sweep/sweep_spec.h"
+
+namespace zvsmap {
+
+/// What the reports are made from: the sweep, its points and one result per
+/// point (results[i] belongs to points[i]; a point not run has no result and
+/// is passed as status kFailed with reason "not run").
+struct ReportInput {
+  const SweepSpec& spec;
+  const Template& tmpl;
+  const std::vector<Point>& points;
+  const std::vector<PointResult>& results;
+};
+
+/// What writing the reports found out, for the verdict and the exit status.
+struct ReportOutcome {
+  std::vector<std::string> files;  ///< paths written
+  int requirements_total = 0;
+  int requirements_failed = 0;
+};
+
+/// Writes every report into `dir` (which exists): edges.csv, and the others
+/// as they are added. Returns false with `error` when a file cannot be written.
+bool WriteReports(const ReportInput& input, const std::string& dir, ReportOutcome* outcome,
+                  std::string* error);
+
+}  // namespace zvsmap
