@@ -11,6 +11,8 @@
 
 #include "core/spice_number.h"
 #include "sweep/axis_values.h"
+#include "sweep/prediction_parser.h"
+#include "sweep/requirement_parser.h"
 
 namespace zvsmap {
 
@@ -377,7 +379,8 @@ bool Parser::ParseDerive(pugi::xml_node node) {
 
 bool Parser::ParseSimulation(pugi::xml_node node) {
   if (!Once(node) ||
-      !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol", "timeout"})) {
+      !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol", "timeout",
+                         "settle", "settle-tolerance", "max-newton", "max-periods"})) {
     return false;
   }
   SimulationSettings& s = spec_->simulation;
@@ -394,6 +397,25 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
   if (node.attribute("max-step") && !Positive(node, "max-step", &s.max_step_s)) return false;
   if (node.attribute("reltol") && !Positive(node, "reltol", &s.reltol)) return false;
   if (node.attribute("timeout") && !Positive(node, "timeout", &s.timeout_s)) return false;
+  if (node.attribute("settle")) {
+    s.settle_method = node.attribute("settle").value();
+    if (s.settle_method != "shooting" && s.settle_method != "periods") {
+      return FailAttr(node, "settle",
+                      "'settle' must be 'shooting' or 'periods', got '" + s.settle_method + "'");
+    }
+  }
+  if (node.attribute("settle-tolerance") &&
+      !Positive(node, "settle-tolerance", &s.settle_tolerance)) {
+    return false;
+  }
+  if (node.attribute("max-newton")) {
+    if (!WholeNumber(node, "max-newton", 0, &n)) return false;
+    s.max_newton = static_cast<int>(n);
+  }
+  if (node.attribute("max-periods")) {
+    if (!WholeNumber(node, "max-periods", 1, &n)) return false;
+    s.max_periods = static_cast<int>(n);
+  }
   return true;
 }
 
@@ -441,7 +463,8 @@ bool Parser::Run(bool check_template_exists) {
   spec_->limits_where = Where(root);
 
   static const std::vector<std::string> kElements = {"template", "set",        "axis", "lockstep",
-                                                     "derive",   "simulation", "zvs",  "limits"};
+                                                     "derive",   "simulation", "zvs",  "limits",
+                                                     "require",  "predict"};
   for (pugi::xml_node node : root.children()) {
     if (node.type() != pugi::node_element) {
       return Fail(WhereText(node), "unexpected text in <sweep>");
@@ -475,12 +498,28 @@ bool Parser::Run(bool check_template_exists) {
       ok = ParseZvs(node);
     } else if (name == "limits") {
       ok = ParseLimits(node);
+    } else if (name == "require") {
+      RequirementSpec r;
+      auto fail = [&](const char* attribute, const std::string& message) {
+        return attribute ? FailAttr(node, attribute, message) : Fail(node, message);
+      };
+      ok = ParseRequirement(node, Where(node), fail, &r);
+      if (ok) spec_->requirements.push_back(std::move(r));
+    } else if (name == "predict") {
+      PredictionSpec p;
+      auto fail = [&](const char* attribute, const std::string& message) {
+        return attribute ? FailAttr(node, attribute, message) : Fail(node, message);
+      };
+      ok = ParsePrediction(node, Where(node), WhereAttr(node, "expr"), spec_->predictions, fail,
+                           &p);
+      if (ok) spec_->predictions.push_back(std::move(p));
     }
     if (!ok) return false;
   }
   if (spec_->template_path.empty()) {
     return Fail(root, "missing <template file=\"...\"/>");
   }
+  if (!CheckRequirementNames(*spec_, error_)) return Fail(error_->where, error_->message);
   if (check_template_exists) {
     std::error_code ec;
     if (!std::filesystem::is_regular_file(spec_->template_path, ec)) {

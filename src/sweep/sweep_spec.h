@@ -7,6 +7,8 @@
 #include <vector>
 
 #include "core/diagnostic.h"
+#include "sweep/prediction_spec.h"
+#include "sweep/requirement_spec.h"
 
 namespace zvsmap {
 
@@ -48,6 +50,14 @@ struct SimulationSettings {
   double max_step_s = 0;        ///< .tran step bound; 0 = derived from period and dead time
   double reltol = 1e-4;         ///< ngspice RELTOL
   double timeout_s = 0;         ///< per-point wall-clock limit; 0 = derived
+  /// Settling: "shooting" (Newton on the template's slow states, falling back
+  /// to period by period) or "periods" (period by period only, in runs of
+  /// settle_periods, stopping when 3 periods in a row change by less than the
+  /// tolerance).
+  std::string settle_method = "shooting";
+  double settle_tolerance = 1e-3;  ///< relative to each state's ripple (floors 1 mA / 1 mV)
+  int max_newton = 8;              ///< Newton iterations before falling back
+  int max_periods = 1000;          ///< periods simulated in all while settling
   SourceLocation where;
 };
 
@@ -75,6 +85,8 @@ struct SweepSpec {
   ZvsCriterion zvs;
   size_t max_points = 10000;  ///< grid size limit (file's <limits max-points>, CLI can override)
   SourceLocation limits_where;  ///< the <limits> element, else the <sweep> root (for the size error)
+  std::vector<RequirementSpec> requirements;  ///< <require> elements, in file order
+  std::vector<PredictionSpec> predictions;    ///< <predict> elements, in file order
 
   /// Number of points of the crossed grid (product of group sizes).
   size_t GridSize() const;

@@ -1,0 +1,180 @@
+#include "sweep/requirement_parser.h"
+
+#include <muParser.h>
+
+#include <algorithm>
+#include <cctype>
+#include <cmath>
+
+#include "core/expression.h"
+#include "core/spice_number.h"
+
+namespace zvsmap {
+
+namespace {
+
+std::string Trim(const std::string& s) {
+  size_t b = s.find_first_not_of(" \t\r\n");
+  if (b == std::string::npos) return "";
+  return s.substr(b, s.find_last_not_of(" \t\r\n") - b + 1);
+}
+
+std::string Lower(std::string s) {
+  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return s;
+}
+
+bool IsName(const std::string& s) {
+  if (s.empty() || std::isdigit(static_cast<unsigned char>(s[0]))) return false;
+  return std::all_of(s.begin(), s.end(), [](char c) {
+    return std::isalnum(static_cast<unsigned char>(c)) || c == '_';
+  });
+}
+
+// Syntax-checks a where-expression and lists the names it uses. muParser's
+// GetUsedVar parses without needing values for the names.
+bool ScanExpression(const std::string& expr, std::vector<std::string>* names,
+                    std::string* message) {
+  try {
+    mu::Parser parser;
+    parser.DefineConst("_pi", 3.14159265358979323846);
+    parser.SetExpr(NormalizeSpiceExpression(expr));
+    for (const auto& kv : parser.GetUsedVar()) names->push_back(kv.first);
+    return true;
+  } catch (const mu::ParserError& e) {
+    *message = e.GetMsg();
+    return false;
+  }
+}
+
+}  // namespace
+
+std::string RequirementSpec::Describe() const {
+  std::string out = (cell.empty() ? std::string("every cell's ") : cell + ".") + edge;
+  switch (kind) {
+    case Kind::kClass:
+      out += min_class == "full" ? " full ZVS" : " at least partial ZVS";
+      break;
+    case Kind::kMetric:
+      out += " " + metric;
+      if (!std::isnan(min)) out += " >= " + FormatEngineering(min);
+      if (!std::isnan(min) && !std::isnan(max)) out += " and";
+      if (!std::isnan(max)) out += " <= " + FormatEngineering(max);
+      break;
+    case Kind::kDeadTimeWindow:
+      out += " dead time within the measured window";
+      break;
+  }
+  out += where_expression.empty() ? " over the whole grid" : " where " + where_expression;
+  return out;
+}
+
+bool ParseRequirement(pugi::xml_node node, const SourceLocation& where,
+                      const RequirementFail& fail, RequirementSpec* out) {
+  static const std::vector<std::string> kAllowed = {
+      "edge", "class", "metric", "min", "max", "dead-time-within-window", "where", "name"};
+  for (pugi::xml_attribute a : node.attributes()) {
+    std::string name = a.name();
+    if (std::find(kAllowed.begin(), kAllowed.end(), name) == kAllowed.end()) {
+      std::string best = ClosestName(name, kAllowed);
+      return fail(a.name(), "unknown attribute '" + name + "' on <require>" +
+                                (best.empty() ? "" : " (did you mean '" + best + "'?)"));
+    }
+  }
+  RequirementSpec r;
+  r.where = where;
+  r.name = Trim(node.attribute("name").value());
+
+  std::string edge = Trim(node.attribute("edge").value());
+  if (edge.empty()) return fail(node.attribute("edge") ? "edge" : nullptr,
+                                "<require> needs 'edge' (\"cell.edge\" or \"edge\")");
+  size_t dot = edge.find('.');
+  if (dot != std::string::npos) {
+    r.cell = edge.substr(0, dot);
+    r.edge = edge.substr(dot + 1);
+  } else {
+    r.edge = edge;
+  }
+  if ((dot != std::string::npos && !IsName(r.cell)) || !IsName(r.edge)) {
+    return fail("edge", "bad edge '" + edge + "' (use \"cell.edge\", e.g. \"leg.high_on\")");
+  }
+  r.cell = Lower(r.cell);
+
+  bool has_class = node.attribute("class");
+  bool has_metric = node.attribute("metric");
+  bool has_window = node.attribute("dead-time-within-window");
+  int kinds = int{has_class} + int{has_metric} + int{has_window};
+  if (kinds != 1) {
+    return fail(nullptr,
+                "<require> takes exactly one of 'class', 'metric' or 'dead-time-within-window'");
+  }
+  if ((node.attribute("min") || node.attribute("max")) && !has_metric) {
+    return fail(node.attribute("min") ? "min" : "max", "'min' and 'max' go with 'metric'");
+  }
+  if (has_class) {
+    r.kind = RequirementSpec::Kind::kClass;
+    r.min_class = Trim(node.attribute("class").value());
+    if (r.min_class != "full" && r.min_class != "partial") {
+      return fail("class", "bad class '" + r.min_class +
+                               "' (use \"full\", or \"partial\" for full or partial)");
+    }
+  } else if (has_metric) {
+    r.kind = RequirementSpec::Kind::kMetric;
+    r.metric = Trim(node.attribute("metric").value());
+    if (!IsName(r.metric)) return fail("metric", "bad metric name '" + r.metric + "'");
+    for (const char* bound : {"min", "max"}) {
+      if (!node.attribute(bound)) continue;
+      std::string raw = Trim(node.attribute(bound).value());
+      std::optional<double> v = ParseSpiceNumber(raw);
+      if (!v) {
+        return fail(bound, "bad number '" + raw + "' in attribute '" + std::string(bound) + "'");
+      }
+      (std::string(bound) == "min" ? r.min : r.max) = *v;
+    }
+    if (std::isnan(r.min) && std::isnan(r.max)) {
+      return fail("metric", "<require metric=...> needs 'min', 'max' or both");
+    }
+    if (!std::isnan(r.min) && !std::isnan(r.max) && r.min > r.max) {
+      return fail("max", "'max' is below 'min'");
+    }
+  } else {
+    r.kind = RequirementSpec::Kind::kDeadTimeWindow;
+    std::string value = Trim(node.attribute("dead-time-within-window").value());
+    if (value != "true") {
+      return fail("dead-time-within-window",
+                  "'dead-time-within-window' takes \"true\" (leave it out otherwise)");
+    }
+  }
+  if (node.attribute("where")) {
+    r.where_expression = Trim(node.attribute("where").value());
+    std::string message;
+    if (r.where_expression.empty()) return fail("where", "empty attribute 'where' on <require>");
+    if (!ScanExpression(r.where_expression, &r.where_names, &message)) {
+      return fail("where", "bad where-expression '" + r.where_expression + "': " + message);
+    }
+  }
+  *out = std::move(r);
+  return true;
+}
+
+bool CheckRequirementNames(const SweepSpec& spec, Diagnostic* error) {
+  std::vector<std::string> known;
+  for (const auto& named : spec.NamedParams()) known.push_back(named.first);
+  for (const RequirementSpec& r : spec.requirements) {
+    for (const std::string& name : r.where_names) {
+      bool found = std::any_of(known.begin(), known.end(),
+                               [&](const std::string& k) { return Lower(k) == Lower(name); });
+      if (found) continue;
+      std::string best = ClosestName(name, known);
+      error->where = r.where;
+      error->message = "where-expression names '" + name +
+                       "', which the sweep does not set" +
+                       (best.empty() ? std::string() : " (did you mean '" + best + "'?)");
+      error->source_line.clear();
+      return false;
+    }
+  }
+  return true;
+}
+
+}  // namespace zvsmap
