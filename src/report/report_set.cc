@@ -2,23 +2,69 @@
 
 #include <filesystem>
 #include <fstream>
+#include <sstream>
 
 #include "report/csv_writer.h"
+#include "report/html_index.h"
+#include "report/junit_xml.h"
+#include "report/plots.h"
+#include "report/requirements.h"
+#include "report/summary_xml.h"
 
 namespace zvsmap {
 
-bool WriteReports(const ReportInput& input, const std::string& dir, ReportOutcome* outcome,
-                  std::string* error) {
-  std::string csv_path = (std::filesystem::path(dir) / "edges.csv").string();
-  std::ofstream csv(csv_path, std::ios::binary);
-  WriteEdgesCsv(csv, input.points, input.results);
-  csv.close();
-  if (!csv) {
-    *error = csv_path + ": cannot write";
+namespace {
+
+bool WriteText(const std::string& dir, const std::string& name, const std::string& text,
+               ReportOutcome* outcome, std::string* error) {
+  std::string path = (std::filesystem::path(dir) / name).string();
+  std::ofstream out(path, std::ios::binary);
+  out << text;
+  out.close();
+  if (!out) {
+    *error = path + ": cannot write";
     return false;
   }
-  outcome->files.push_back(csv_path);
+  outcome->files.push_back(path);
   return true;
+}
+
+std::string XmlText(const pugi::xml_document& doc) {
+  std::ostringstream out;
+  doc.save(out, "  ", pugi::format_default, pugi::encoding_utf8);
+  return out.str();
+}
+
+}  // namespace
+
+bool WriteReports(const ReportInput& input, const std::string& dir, ReportOutcome* outcome,
+                  std::string* error) {
+  std::ostringstream csv;
+  WriteEdgesCsv(csv, input.points, input.results);
+  if (!WriteText(dir, "edges.csv", csv.str(), outcome, error)) return false;
+
+  std::vector<RequirementVerdict> verdicts = EvaluateRequirements(input);
+  outcome->requirements_total = static_cast<int>(verdicts.size());
+  outcome->requirements_failed = 0;
+  for (const RequirementVerdict& v : verdicts) outcome->requirements_failed += v.held ? 0 : 1;
+
+  pugi::xml_document summary;
+  BuildSummaryXml(input, verdicts, &summary);
+  if (!WriteText(dir, "summary.xml", XmlText(summary), outcome, error)) return false;
+
+  pugi::xml_document junit;
+  BuildJunitXml(input, verdicts, &junit);
+  if (!WriteText(dir, "junit.xml", XmlText(junit), outcome, error)) return false;
+
+  std::vector<Plot> plots = MakePlots(input);
+  for (const Plot& p : plots) {
+    if (!WriteText(dir, p.file, p.svg, outcome, error)) return false;
+  }
+
+  std::vector<std::string> links = {"edges.csv", "summary.xml", "junit.xml"};
+  for (const Plot& p : plots) links.push_back(p.file);
+  return WriteText(dir, "index.html", BuildHtmlIndex(input, verdicts, plots, links), outcome,
+                   error);
 }
 
 }  // namespace zvsmap

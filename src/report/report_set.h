@@ -28,8 +28,10 @@ struct ReportOutcome {
   int requirements_failed = 0;
 };
 
-/// Writes every report into `dir` (which exists): edges.csv, and the others
-/// as they are added. Returns false with `error` when a file cannot be written.
+/// Writes every report into `dir` (which exists): edges.csv, summary.xml,
+/// junit.xml, the SVG plots and index.html; evaluates the sweep's requirements
+/// and fills `outcome` (files written, requirements total and failed). Returns
+/// false with `error` when a file cannot be written.
 bool WriteReports(const ReportInput& input, const std::string& dir, ReportOutcome* outcome,
                   std::string* error);
 

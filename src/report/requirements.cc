@@ -1,0 +1,166 @@
+#include "report/requirements.h"
+
+#include <cctype>
+#include <cmath>
+
+#include "core/expression.h"
+#include "core/spice_number.h"
+#include "report/zvs_boundary.h"
+
+namespace zvsmap {
+
+namespace {
+
+bool SameName(const std::string& a, const std::string& b) {
+  if (a.size() != b.size()) return false;
+  for (size_t i = 0; i < a.size(); ++i) {
+    if (std::tolower(static_cast<unsigned char>(a[i])) !=
+        std::tolower(static_cast<unsigned char>(b[i]))) {
+      return false;
+    }
+  }
+  return true;
+}
+
+std::string Place(const SourceLocation& where) {
+  std::string out = where.file.empty() ? "sweep" : where.file;
+  if (where.line > 0) out += ":" + std::to_string(where.line);
+  return out;
+}
+
+std::string Num(double v) { return std::isnan(v) ? "not measured" : FormatEngineering(v); }
+
+// The where-expression at one point: 1 covers, 0 does not, -1 error.
+int Covers(const RequirementSpec& r, const Point& point, std::string* message) {
+  if (r.where_expression.empty()) return 1;
+  Variables vars;
+  for (const std::string& name : r.where_names) {
+    bool found = false;
+    for (const ParamValue& v : point.values) {
+      if (SameName(v.name, name)) {
+        vars[name] = v.value;
+        found = true;
+      }
+    }
+    if (!found) {
+      *message = "where-expression names '" + name + "', which point " +
+                 std::to_string(point.index) + " does not set";
+      return -1;
+    }
+  }
+  double value = 0;
+  int column = 0;
+  if (!EvaluateExpression(r.where_expression, vars, &value, message, &column)) return -1;
+  return value != 0 ? 1 : 0;
+}
+
+// Checks one measured edge; returns "" when it holds, else what is wrong.
+std::string Check(const RequirementSpec& r, const EdgeMeasurement& e, const MarginSource& margin,
+                  const WindowColumns& window) {
+  std::string label = e.cell + "." + e.edge;
+  switch (r.kind) {
+    case RequirementSpec::Kind::kClass: {
+      bool ok = e.zvs == ZvsClass::kFull ||
+                (r.min_class == "partial" && e.zvs == ZvsClass::kPartial);
+      if (ok) return "";
+      return label + " class " + ZvsClassName(e.zvs) + " (v_turn_on_v=" +
+             Num(e.Get("v_turn_on_v")) + ", limit " + Num(e.Get("v_residual_limit_v")) + ")";
+    }
+    case RequirementSpec::Kind::kMetric: {
+      bool is_margin = r.metric == "zvs_margin";
+      double v = is_margin ? MarginOf(e, margin) : e.Get(r.metric);
+      std::string name = is_margin ? "zvs_margin (" + margin.description + ")" : r.metric;
+      bool ok = !std::isnan(v) && (std::isnan(r.min) || v >= r.min) &&
+                (std::isnan(r.max) || v <= r.max);
+      if (ok) return "";
+      return label + " " + name + "=" + Num(v);
+    }
+    case RequirementSpec::Kind::kDeadTimeWindow: {
+      double dead = e.Get("t_dead_s");
+      double start = e.Get(window.start), end = e.Get(window.end);
+      bool ok = !std::isnan(dead) && !std::isnan(start) && !std::isnan(end) && dead >= start &&
+                dead <= end;
+      if (ok) return "";
+      return label + " t_dead_s=" + Num(dead) + " outside [" + window.start + "=" + Num(start) +
+             ", " + window.end + "=" + Num(end) + "]";
+    }
+  }
+  return "";
+}
+
+}  // namespace
+
+std::vector<RequirementVerdict> EvaluateRequirements(const ReportInput& input) {
+  MarginSource margin = ChooseMargin(input.results);
+  WindowColumns window = FindWindowColumns(input.results);
+  constexpr size_t kMaxDetails = 50;
+
+  std::vector<RequirementVerdict> verdicts;
+  for (const RequirementSpec& r : input.spec.requirements) {
+    RequirementVerdict v;
+    v.spec = r;
+    v.title = r.name.empty() ? Place(r.where) + ": " + r.Describe() : r.name;
+    std::string error;
+    if (r.kind == RequirementSpec::Kind::kDeadTimeWindow && !window.found()) {
+      error = "the results have no dead-time window columns (looked for t_dead_min*/t_zvs* and "
+              "t_dead_max*/t_ring_back*/t_ringback*), so the window cannot be checked";
+    }
+    for (size_t i = 0; error.empty() && i < input.points.size() && i < input.results.size();
+         ++i) {
+      const Point& point = input.points[i];
+      const PointResult& result = input.results[i];
+      int covers = Covers(r, point, &error);
+      if (covers < 0) error = "cannot evaluate where=\"" + r.where_expression + "\": " + error;
+      if (covers <= 0) continue;
+      ++v.covered;
+      if (result.status != PointStatus::kOk) {
+        ++v.unchecked;
+        continue;
+      }
+      ++v.checked;
+      std::vector<std::string> problems;
+      bool any_edge = false;
+      for (const EdgeMeasurement& e : result.edges) {
+        if (e.edge != r.edge || (!r.cell.empty() && !SameName(e.cell, r.cell))) continue;
+        any_edge = true;
+        std::string problem = Check(r, e, margin, window);
+        if (!problem.empty()) problems.push_back(problem);
+      }
+      if (!any_edge) problems.push_back("edge " + (r.cell.empty() ? r.edge : r.cell + "." + r.edge) +
+                                        " not measured");
+      if (problems.empty()) continue;
+      ++v.failing;
+      if (v.details.size() < kMaxDetails) {
+        std::string line = "point " + std::to_string(point.index) + " (" + point.Describe() + "):";
+        for (const std::string& p : problems) line += " " + p + ";";
+        line.pop_back();
+        v.details.push_back(line);
+      }
+    }
+    if (!error.empty()) {
+      v.held = false;
+      v.message = Place(r.where) + ": " + error;
+    } else if (v.checked == 0) {
+      v.held = false;
+      v.message = Place(r.where) + ": covers no point that ran (" + std::to_string(v.covered) +
+                  " covered, " + std::to_string(v.unchecked) + " did not run)";
+    } else if (v.failing > 0) {
+      v.held = false;
+      v.message = std::to_string(v.failing) + " of " + std::to_string(v.checked) +
+                  " checked points break it";
+      if (static_cast<size_t>(v.failing) > v.details.size()) {
+        v.details.push_back("... and " + std::to_string(v.failing - v.details.size()) + " more");
+      }
+    } else {
+      v.held = true;
+      v.message = "held at all " + std::to_string(v.checked) + " checked points";
+    }
+    if (v.unchecked > 0) {
+      v.message += "; " + std::to_string(v.unchecked) + " covered points did not run";
+    }
+    verdicts.push_back(std::move(v));
+  }
+  return verdicts;
+}
+
+}  // namespace zvsmap

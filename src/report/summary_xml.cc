@@ -1,0 +1,217 @@
+#include "report/summary_xml.h"
+
+#include <cmath>
+#include <algorithm>
+#include <cstdio>
+#include <limits>
+
+#include "report/zvs_boundary.h"
+
+namespace zvsmap {
+
+namespace {
+
+void AddAt(pugi::xml_node parent, const std::string& param, double value) {
+  pugi::xml_node at = parent.append_child("at");
+  at.append_attribute("param") = param.c_str();
+  at.append_attribute("value") = XmlNumber(value).c_str();
+}
+
+// The measured range of one column over the points that ran.
+void AddRange(pugi::xml_node edge_node, const char* quantity, const std::string& column,
+              const ReportInput& input, const EdgeKey& key) {
+  if (column.empty()) return;
+  double lo = std::numeric_limits<double>::infinity(), hi = -lo;
+  int count = 0;
+  for (const PointResult& r : input.results) {
+    if (r.status != PointStatus::kOk) continue;
+    const EdgeMeasurement* e = FindEdge(r, key);
+    double v = e ? e->Get(column) : std::nan("");
+    if (std::isnan(v)) continue;
+    lo = std::min(lo, v);
+    hi = std::max(hi, v);
+    ++count;
+  }
+  pugi::xml_node range = edge_node.append_child("range");
+  range.append_attribute("quantity") = quantity;
+  range.append_attribute("column") = column.c_str();
+  range.append_attribute("points") = count;
+  if (count > 0) {
+    range.append_attribute("min") = XmlNumber(lo).c_str();
+    range.append_attribute("max") = XmlNumber(hi).c_str();
+  }
+}
+
+void AddEdge(pugi::xml_node root, const ReportInput& input, const Grid& grid, const EdgeKey& key,
+             const MarginSource& margin, const WindowColumns& window) {
+  pugi::xml_node node = root.append_child("edge");
+  node.append_attribute("cell") = key.cell.c_str();
+  node.append_attribute("name") = key.edge.c_str();
+
+  int full = 0, partial = 0, hard = 0, unknown = 0, failed = 0, unsettled = 0, missing = 0;
+  double worst = std::numeric_limits<double>::infinity();
+  size_t worst_i = 0;
+  for (size_t i = 0; i < input.results.size() && i < input.points.size(); ++i) {
+    const PointResult& r = input.results[i];
+    if (r.status == PointStatus::kFailed) {
+      ++failed;
+      continue;
+    }
+    if (r.status == PointStatus::kUnsettled) {
+      ++unsettled;
+      continue;
+    }
+    const EdgeMeasurement* e = FindEdge(r, key);
+    if (!e) {
+      ++missing;
+      continue;
+    }
+    switch (e->zvs) {
+      case ZvsClass::kFull: ++full; break;
+      case ZvsClass::kPartial: ++partial; break;
+      case ZvsClass::kHard: ++hard; break;
+      case ZvsClass::kUnknown: ++unknown; break;
+    }
+    double m = MarginOf(*e, margin);
+    if (!std::isnan(m) && m < worst) {
+      worst = m;
+      worst_i = i;
+    }
+  }
+  pugi::xml_node counts = node.append_child("counts");
+  counts.append_attribute("full") = full;
+  counts.append_attribute("partial") = partial;
+  counts.append_attribute("hard") = hard;
+  counts.append_attribute("unknown") = unknown;
+  counts.append_attribute("failed") = failed;
+  counts.append_attribute("unsettled") = unsettled;
+  counts.append_attribute("not-measured") = missing;
+
+  pugi::xml_node region = node.append_child("zvs-region");
+  region.append_attribute("located-on") = margin.description.c_str();
+  region.append_attribute("interpolation") = "linear";
+  for (const Boundary& b : FindBoundaries(grid, input.results, key, margin)) {
+    pugi::xml_node bn = region.append_child("boundary");
+    bn.append_attribute("along") = grid.dims[b.dim].param.c_str();
+    bn.append_attribute("value") = XmlNumber(b.value).c_str();
+    bn.append_attribute("between") = XmlNumber(b.lower).c_str();
+    bn.append_attribute("and") = XmlNumber(b.upper).c_str();
+    bn.append_attribute("method") = b.interpolated ? "margin-zero" : "midpoint";
+    bn.append_attribute("zvs-side") = b.zvs_above ? "above" : "below";
+    for (size_t d = 0; d < grid.dims.size(); ++d) {
+      if (b.at[d] >= 0 && grid.dims[d].values.size() > 1) {
+        AddAt(bn, grid.dims[d].param, grid.dims[d].values[b.at[d]]);
+      }
+    }
+  }
+
+  if (std::isfinite(worst)) {
+    pugi::xml_node w = node.append_child("worst-margin");
+    w.append_attribute("value") = XmlNumber(worst).c_str();
+    w.append_attribute("point") = static_cast<unsigned long long>(input.points[worst_i].index);
+    for (const ParamValue& v : input.points[worst_i].values) AddAt(w, v.name, v.value);
+  }
+  AddRange(node, "t-zvs", FindColumnWithPrefix(input.results, "t_zvs"), input, key);
+  if (window.found()) {
+    AddRange(node, "dead-time-window-start", window.start, input, key);
+    AddRange(node, "dead-time-window-end", window.end, input, key);
+  }
+}
+
+}  // namespace
+
+std::string XmlNumber(double value) {
+  // xs:double spells the special values NaN, INF and -INF.
+  if (std::isnan(value)) return "NaN";
+  if (std::isinf(value)) return value > 0 ? "INF" : "-INF";
+  char buf[40];
+  std::snprintf(buf, sizeof buf, "%.9g", value);
+  return buf;
+}
+
+void BuildSummaryXml(const ReportInput& input, const std::vector<RequirementVerdict>& verdicts,
+                     pugi::xml_document* doc) {
+  doc->reset();
+  pugi::xml_node decl = doc->append_child(pugi::node_declaration);
+  decl.append_attribute("version") = "1.0";
+  decl.append_attribute("encoding") = "UTF-8";
+  pugi::xml_node root = doc->append_child("zvs-summary");
+  root.append_attribute("format") = 1;
+  root.append_attribute("tool-version") = ZVSMAP_VERSION;
+
+  int ran = 0, failed = 0, unsettled = 0;
+  for (const PointResult& r : input.results) {
+    if (r.status == PointStatus::kOk) ++ran;
+    if (r.status == PointStatus::kFailed) ++failed;
+    if (r.status == PointStatus::kUnsettled) ++unsettled;
+  }
+  pugi::xml_node run = root.append_child("run");
+  run.append_attribute("sweep") = input.spec.path.c_str();
+  run.append_attribute("template") = input.spec.template_path.c_str();
+  run.append_attribute("points") = static_cast<unsigned long long>(input.points.size());
+  run.append_attribute("ran") = ran;
+  run.append_attribute("failed") = failed;
+  run.append_attribute("unsettled") = unsettled;
+  run.append_attribute("zvs-criterion") = input.spec.zvs.Describe().c_str();
+
+  Grid grid = BuildGrid(input.spec, input.points);
+  pugi::xml_node grid_node = root.append_child("grid");
+  for (const GridDim& dim : grid.dims) {
+    pugi::xml_node d = grid_node.append_child("dimension");
+    d.append_attribute("param") = dim.param.c_str();
+    d.append_attribute("count") = static_cast<unsigned long long>(dim.values.size());
+    if (!dim.values.empty()) {
+      d.append_attribute("first") = XmlNumber(dim.values.front()).c_str();
+      d.append_attribute("last") = XmlNumber(dim.values.back()).c_str();
+    }
+    for (const std::string& also : dim.also) {
+      d.append_child("moves-with").append_attribute("param") = also.c_str();
+    }
+  }
+
+  MarginSource margin = ChooseMargin(input.results);
+  pugi::xml_node m = root.append_child("margin");
+  m.append_attribute("source") = margin.column.empty() ? "voltage-difference" : "column";
+  m.append_attribute("definition") = margin.description.c_str();
+  if (!margin.unit.empty()) m.append_attribute("unit") = margin.unit.c_str();
+  m.append_attribute("positive-means") = "turn-on within the ZVS criterion";
+
+  WindowColumns window = FindWindowColumns(input.results);
+  for (const EdgeKey& key : MeasuredEdges(input.results)) {
+    AddEdge(root, input, grid, key, margin, window);
+  }
+
+  pugi::xml_node failed_node = root.append_child("failed-points");
+  failed_node.append_attribute("count") = failed + unsettled;
+  for (size_t i = 0; i < input.results.size() && i < input.points.size(); ++i) {
+    const PointResult& r = input.results[i];
+    if (r.status == PointStatus::kOk) continue;
+    pugi::xml_node p = failed_node.append_child("point");
+    p.append_attribute("index") = static_cast<unsigned long long>(input.points[i].index);
+    p.append_attribute("status") = PointStatusName(r.status);
+    p.append_attribute("reason") = r.reason.c_str();
+    for (const ParamValue& v : input.points[i].values) AddAt(p, v.name, v.value);
+  }
+
+  int failing = 0;
+  for (const RequirementVerdict& v : verdicts) failing += v.held ? 0 : 1;
+  pugi::xml_node reqs = root.append_child("requirements");
+  reqs.append_attribute("total") = static_cast<unsigned long long>(verdicts.size());
+  reqs.append_attribute("failed") = failing;
+  for (const RequirementVerdict& v : verdicts) {
+    pugi::xml_node r = reqs.append_child("requirement");
+    r.append_attribute("title") = v.title.c_str();
+    r.append_attribute("held") = v.held;
+    r.append_attribute("line") = v.spec.where.line;
+    r.append_attribute("covered") = v.covered;
+    r.append_attribute("checked") = v.checked;
+    r.append_attribute("failing") = v.failing;
+    r.append_attribute("unchecked") = v.unchecked;
+    r.append_attribute("message") = v.message.c_str();
+    for (const std::string& detail : v.details) {
+      r.append_child("detail").text() = detail.c_str();
+    }
+  }
+}
+
+}  // namespace zvsmap

@@ -1,0 +1,43 @@
+// A minimal SVG drawing surface over pugixml (so every file is well-formed
+// XML and text is escaped by the XML writer, not by hand).
+#pragma once
+
+#include <pugixml.hpp>
+#include <string>
+#include <utility>
+#include <vector>
+
+namespace zvsmap {
+
+/// An SVG document of a fixed pixel size; y grows downwards as in SVG.
+class SvgCanvas {
+ public:
+  /// A `width` x `height` drawing with a white background and a <title>.
+  SvgCanvas(double width, double height, const std::string& title);
+
+  /// A filled rectangle; `tooltip` (if not empty) becomes its <title>.
+  void Rect(double x, double y, double w, double h, const std::string& fill,
+            const std::string& tooltip = "");
+  /// A straight line.
+  void Line(double x1, double y1, double x2, double y2, const std::string& stroke, double width,
+            bool dashed = false);
+  /// An open polyline through `points`.
+  void Polyline(const std::vector<std::pair<double, double>>& points, const std::string& stroke,
+                double width, bool dashed = false);
+  /// A filled circle with a thin dark outline.
+  void Circle(double cx, double cy, double r, const std::string& fill,
+              const std::string& tooltip = "");
+  /// Text at (x, y); anchor "start", "middle" or "end"; `rotate` in degrees.
+  void Text(double x, double y, const std::string& text, const char* anchor = "middle",
+            double size = 12, double rotate = 0);
+
+  /// The document as text.
+  std::string ToString() const;
+
+ private:
+  pugi::xml_node Add(const char* name);
+  pugi::xml_document doc_;
+  pugi::xml_node svg_;
+};
+
+}  // namespace zvsmap

@@ -1,0 +1,163 @@
+#include "report/zvs_boundary.h"
+
+#include <cmath>
+#include <limits>
+#include <algorithm>
+#include <map>
+
+namespace zvsmap {
+
+std::vector<size_t> Grid::SweptDims() const {
+  std::vector<size_t> out;
+  for (size_t d = 0; d < dims.size(); ++d) {
+    if (dims[d].values.size() > 1) out.push_back(d);
+  }
+  return out;
+}
+
+Grid BuildGrid(const SweepSpec& spec, const std::vector<Point>& points) {
+  Grid grid;
+  for (const AxisGroup& group : spec.groups) {
+    if (group.axes.empty()) continue;
+    GridDim dim;
+    dim.param = group.axes.front().param;
+    dim.values = group.axes.front().values;
+    for (size_t k = 1; k < group.axes.size(); ++k) dim.also.push_back(group.axes[k].param);
+    grid.dims.push_back(std::move(dim));
+  }
+  for (const Point& point : points) {
+    std::vector<int> c;
+    for (const GridDim& dim : grid.dims) {
+      std::optional<double> v = point.Get(dim.param);
+      int best = -1;
+      double best_distance = std::numeric_limits<double>::infinity();
+      for (size_t k = 0; v && k < dim.values.size(); ++k) {
+        double distance = std::fabs(dim.values[k] - *v);
+        if (distance < best_distance) {
+          best_distance = distance;
+          best = static_cast<int>(k);
+        }
+      }
+      c.push_back(best);
+    }
+    grid.coords.push_back(std::move(c));
+  }
+  return grid;
+}
+
+std::vector<EdgeKey> MeasuredEdges(const std::vector<PointResult>& results) {
+  std::vector<EdgeKey> keys;
+  for (const PointResult& r : results) {
+    for (const EdgeMeasurement& e : r.edges) {
+      EdgeKey key{e.cell, e.edge};
+      bool seen = false;
+      for (const EdgeKey& k : keys) seen = seen || k == key;
+      if (!seen) keys.push_back(key);
+    }
+  }
+  return keys;
+}
+
+const EdgeMeasurement* FindEdge(const PointResult& result, const EdgeKey& key) {
+  for (const EdgeMeasurement& e : result.edges) {
+    if (e.cell == key.cell && e.edge == key.edge) return &e;
+  }
+  return nullptr;
+}
+
+std::string FindColumnWithPrefix(const std::vector<PointResult>& results,
+                                 const std::string& prefix) {
+  for (const PointResult& r : results) {
+    for (const EdgeMeasurement& e : r.edges) {
+      for (const Metric& m : e.metrics) {
+        if (m.column.compare(0, prefix.size(), prefix) == 0) return m.column;
+      }
+    }
+  }
+  return "";
+}
+
+WindowColumns FindWindowColumns(const std::vector<PointResult>& results) {
+  WindowColumns w;
+  w.start = FindColumnWithPrefix(results, "t_dead_min");
+  if (w.start.empty()) w.start = FindColumnWithPrefix(results, "t_zvs");
+  for (const char* prefix : {"t_dead_max", "t_ring_back", "t_ringback"}) {
+    if (w.end.empty()) w.end = FindColumnWithPrefix(results, prefix);
+  }
+  return w;
+}
+
+MarginSource ChooseMargin(const std::vector<PointResult>& results) {
+  MarginSource source;
+  source.column = FindColumnWithPrefix(results, "zvs_margin");
+  if (source.column.empty()) {
+    source.description = "v_residual_limit_v - v_turn_on_v";
+    source.unit = "V";
+  } else {
+    source.description = source.column;
+  }
+  return source;
+}
+
+double MarginOf(const EdgeMeasurement& m, const MarginSource& source) {
+  if (!source.column.empty()) return m.Get(source.column);
+  return m.Get("v_residual_limit_v") - m.Get("v_turn_on_v");
+}
+
+std::vector<Boundary> FindBoundaries(const Grid& grid, const std::vector<PointResult>& results,
+                                     const EdgeKey& key, const MarginSource& margin) {
+  std::map<std::vector<int>, size_t> at_coords;
+  for (size_t i = 0; i < grid.coords.size() && i < results.size(); ++i) {
+    bool on_grid = true;
+    for (int c : grid.coords[i]) on_grid = on_grid && c >= 0;
+    if (on_grid) at_coords.emplace(grid.coords[i], i);
+  }
+  auto measured = [&](size_t i) -> const EdgeMeasurement* {
+    if (results[i].status != PointStatus::kOk) return nullptr;
+    const EdgeMeasurement* e = FindEdge(results[i], key);
+    return e && e->zvs != ZvsClass::kUnknown ? e : nullptr;
+  };
+
+  std::vector<Boundary> out;
+  for (const auto& [coords, i] : at_coords) {
+    for (size_t d = 0; d < grid.dims.size(); ++d) {
+      const std::vector<double>& values = grid.dims[d].values;
+      if (static_cast<size_t>(coords[d]) + 1 >= values.size()) continue;
+      std::vector<int> next = coords;
+      ++next[d];
+      auto found = at_coords.find(next);
+      if (found == at_coords.end()) continue;
+      const EdgeMeasurement* a = measured(i);
+      const EdgeMeasurement* b = measured(found->second);
+      if (!a || !b) continue;
+      bool full_a = a->zvs == ZvsClass::kFull, full_b = b->zvs == ZvsClass::kFull;
+      if (full_a == full_b) continue;
+      Boundary boundary;
+      boundary.dim = d;
+      boundary.lower = values[coords[d]];
+      boundary.upper = values[next[d]];
+      boundary.zvs_above = full_b;
+      boundary.at = coords;
+      boundary.at[d] = -1;
+      double ma = MarginOf(*a, margin), mb = MarginOf(*b, margin);
+      // The margin's zero between the two points, by linear interpolation;
+      // when the margins do not bracket zero (a criterion that disagrees with
+      // the margin, or a margin not measured) the midpoint stands in.
+      double t = 0.5;
+      if (std::isfinite(ma) && std::isfinite(mb) && ma != mb && (ma >= 0) != (mb >= 0)) {
+        t = ma / (ma - mb);
+        boundary.interpolated = true;
+      }
+      boundary.value = boundary.lower + t * (boundary.upper - boundary.lower);
+      boundary.position = coords[d] + t;
+      out.push_back(std::move(boundary));
+    }
+  }
+  // Order: by dimension, then by the other positions (map order already sorts
+  // by coordinates), so the output is stable.
+  std::stable_sort(out.begin(), out.end(),
+                   [](const Boundary& x, const Boundary& y) { return x.dim < y.dim; });
+  return out;
+}
+
+}  // namespace zvsmap

@@ -1,0 +1,102 @@
+// The ZVS region of a sweep as a grid: where each point sits, which margin
+// measures ZVS, and where along each axis the class changes.
+#pragma once
+
+#include <cstddef>
+#include <string>
+#include <vector>
+
+#include "report/report_set.h"
+
+namespace zvsmap {
+
+/// One grid dimension: a plain axis, or a lockstep group (labelled by its
+/// first axis; `also` names the others that move with it).
+struct GridDim {
+  std::string param;
+  std::vector<std::string> also;
+  std::vector<double> values;
+};
+
+/// A cell's edge as the reports group measurements ("leg", "high_on").
+struct EdgeKey {
+  std::string cell;
+  std::string edge;
+  /// "leg.high_on".
+  std::string Label() const { return cell + "." + edge; }
+  bool operator==(const EdgeKey& o) const { return cell == o.cell && edge == o.edge; }
+};
+
+/// The margin the summary, the plots and `metric="zvs_margin"` use: a metric
+/// column whose name starts with "zvs_margin" when the results have one (the
+/// energy margin), else v_residual_limit_v - v_turn_on_v (volts). Positive
+/// means the edge turns on within the ZVS criterion.
+struct MarginSource {
+  std::string column;       ///< the column used, or "" for the voltage difference
+  std::string description;  ///< e.g. "v_residual_limit_v - v_turn_on_v"
+  std::string unit;         ///< "V", or "" when read from a column (unit in its name)
+};
+
+/// The sweep's grid and each point's place on it.
+struct Grid {
+  std::vector<GridDim> dims;             ///< in file order (the first varies slowest)
+  std::vector<std::vector<int>> coords;  ///< per entry of input.points; -1 when off the grid
+  /// Dimensions with more than one value.
+  std::vector<size_t> SweptDims() const;
+};
+
+/// Builds the grid from the sweep's axis groups; a point's position on each
+/// dimension is the axis value closest to the point's value.
+Grid BuildGrid(const SweepSpec& spec, const std::vector<Point>& points);
+
+/// Every (cell, edge) measured in `results`, in order of first appearance.
+std::vector<EdgeKey> MeasuredEdges(const std::vector<PointResult>& results);
+
+/// The measurement of `key` in `result`, or nullptr.
+const EdgeMeasurement* FindEdge(const PointResult& result, const EdgeKey& key);
+
+/// The first metric column in `results` whose name starts with `prefix`, or "".
+std::string FindColumnWithPrefix(const std::vector<PointResult>& results,
+                                 const std::string& prefix);
+
+/// The metric columns that hold the measured dead-time window of an edge:
+/// its start (the shortest dead time that reaches ZVS; a column starting with
+/// "t_dead_min", else "t_zvs") and its end (the longest before ring-back; a
+/// column starting with "t_dead_max", else "t_ring_back", else "t_ringback").
+/// Either is "" when the results have no such column.
+struct WindowColumns {
+  std::string start;
+  std::string end;
+  bool found() const { return !start.empty() && !end.empty(); }
+};
+
+/// Looks up the dead-time window columns in `results`.
+WindowColumns FindWindowColumns(const std::vector<PointResult>& results);
+
+/// Chooses the margin for these results (see MarginSource).
+MarginSource ChooseMargin(const std::vector<PointResult>& results);
+
+/// The margin of one measurement, NaN when not measured.
+double MarginOf(const EdgeMeasurement& m, const MarginSource& source);
+
+/// Where the ZVS class of an edge changes between two neighbouring points of
+/// one dimension, the other dimensions held at `at` (positions, -1 for the
+/// dimension itself).
+struct Boundary {
+  size_t dim = 0;
+  double value = 0;         ///< the located boundary
+  double lower = 0;         ///< the neighbouring axis values it lies between
+  double upper = 0;
+  bool interpolated = false;  ///< true: zero of the margin, interpolated linearly;
+                              ///< false: the margins do not change sign, midpoint taken
+  bool zvs_above = false;   ///< full ZVS on the `upper` side
+  std::vector<int> at;      ///< positions of every dimension, -1 for `dim`
+  double position = 0;      ///< `value` in index units along `dim` (for plotting)
+};
+
+/// Every class change of `key` (full versus not full) between neighbouring
+/// points that both ran (status ok) and both measured the edge.
+std::vector<Boundary> FindBoundaries(const Grid& grid, const std::vector<PointResult>& results,
+                                     const EdgeKey& key, const MarginSource& margin);
+
+}  // namespace zvsmap
