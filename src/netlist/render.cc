@@ -157,6 +157,9 @@ std::vector<std::string> VectorsToSave(const Template& tmpl) {
     node(c.high_source);
     node(c.low_gate);
     node(c.low_source);
+    // Channel currents (drain -> source) of the switch subcircuits' 'vch'.
+    if (!c.high.empty()) add("i(v." + c.high + ".vch)");
+    if (!c.low.empty()) add("i(v." + c.low + ".vch)");
   }
   for (const auto& s : tmpl.states) add(s.vector);
   return out;

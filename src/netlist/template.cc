@@ -84,7 +84,8 @@ bool SplitParamLine(const std::string& body, std::vector<std::pair<std::string, 
 const char* const kCellKeys[] = {"node",      "rail_high",   "rail_low",  "current",
                                  "high",      "low",         "high_cmd",  "low_cmd",
                                  "high_gate", "high_source", "low_gate",  "low_source",
-                                 "high_dead", "low_dead"};
+                                 "high_dead", "low_dead",    "high_vth",  "low_vth",
+                                 "inductance", "coss"};
 const char* const kRequiredCellKeys[] = {"node",     "rail_high", "rail_low", "current",
                                          "high_cmd", "low_cmd"};
 
@@ -141,6 +142,10 @@ bool ParseCell(const std::vector<std::string>& words, const std::string& path, i
   cell->low_source = get("low_source");
   cell->high_dead = get("high_dead");
   cell->low_dead = get("low_dead");
+  cell->high_vth = get("high_vth");
+  cell->low_vth = get("low_vth");
+  cell->inductance = get("inductance");
+  cell->coss = get("coss");
   return true;
 }
 
@@ -290,3 +295,9 @@ bool LoadTemplate(const std::string& path, Template* out, Diagnostic* error) {
 }
 
 }  // namespace zvsmap
+    const std::pair<const char*, const std::string*> named[] = {
+        {"high_vth", &c.high_vth}, {"low_vth", &c.low_vth}, {"inductance", &c.inductance},
+        {"coss", &c.coss}};
+    for (const auto& [key, name] : named) {
+      if (!require_param(*name, c.where, "cell '" + c.name + "' " + key)) return false;
+    }

@@ -29,6 +29,9 @@ struct CellSpec {
   std::string high_gate, high_source;     ///< optional: gate and source nodes
   std::string low_gate, low_source;
   std::string high_dead, low_dead;        ///< optional: params of the dead time before each turn-on
+  std::string high_vth, low_vth;          ///< optional: params of each switch's gate threshold
+  std::string inductance;                 ///< optional: param of the commutating inductance
+  std::string coss;                       ///< optional: param of a linear Coss per switch
   SourceLocation where;
 };
 
