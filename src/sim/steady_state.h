@@ -1,0 +1,79 @@
+// Periodic steady state of a switched circuit: shooting (Newton on the slow
+// states over one period, finite-difference Jacobian) with a period-by-period
+// fallback. Works over the Simulator seam and a render callback, so it knows
+// nothing about templates or commutation analysis.
+#pragma once
+
+#include <functional>
+#include <string>
+#include <vector>
+
+#include "sim/simulator.h"
+
+namespace zvsmap {
+
+/// One slow state: a vector the simulator returns (e.g. "i(l1)", "v(out)")
+/// whose value at the start of a period is set by the renderer.
+struct SlowState {
+  std::string vector;  ///< name as saved, lower-case
+  double initial = 0;  ///< starting guess (the average-model value)
+  /// Absolute convergence floor in the vector's unit (1 mA for a current,
+  /// 1 mV for a voltage by default; see SlowStateFloor()).
+  double floor = 1e-3;
+};
+
+/// The default absolute floor of a state vector: 1e-3 (1 mA or 1 mV).
+double SlowStateFloor(const std::string& vector);
+
+/// Renders a netlist that starts every slow state at `x` (same order as the
+/// states) and simulates `periods` whole periods from t = 0 (tstop = periods
+/// times the period, every sample stored, `uic`). Returns false with a
+/// one-line `error` when it cannot.
+using PeriodRenderer = std::function<bool(const std::vector<double>& x, int periods,
+                                          std::string* netlist, std::string* error)>;
+
+/// Limits and tolerances of the search.
+struct SteadyStateOptions {
+  enum class Method { kShooting, kPeriods };
+  Method method = Method::kShooting;
+  /// A state is settled when |x(T) - x(0)| <= max(tolerance * ripple, floor),
+  /// ripple = max - min of that state over the period.
+  double tolerance = 1e-3;
+  int max_newton = 8;          ///< Newton iterations before falling back
+  int max_periods = 1000;      ///< periods simulated in all, every run counted
+  int chunk_periods = 20;      ///< run length of the period-by-period method
+  int consecutive = 3;         ///< period-by-period: periods in a row within tolerance
+};
+
+/// The outcome. `ok` false means a simulation failed (error/log say why);
+/// `ok` true with `settled` false means the limits ran out.
+struct SteadyStateResult {
+  bool ok = false;
+  bool settled = false;
+  std::string error;
+  std::string log;        ///< log of the failing run, if any
+  std::string method;     ///< "shooting" or "periods" (the method that finished)
+  int iterations = 0;     ///< Newton iterations taken
+  int periods = 0;        ///< periods simulated in all
+  /// max over states of |x(T) - x(0)| / max(ripple, floor / tolerance); the
+  /// point is settled when this is <= tolerance.
+  double residual = 0;
+  std::vector<double> state;   ///< the settled (or last) start-of-period state
+  std::vector<double> ripple;  ///< each state's ripple over the last period
+};
+
+/// Finds the periodic steady state. `vectors` are the names to ask the
+/// simulator for (must include every state vector). Shooting (Aprille &
+/// Trick, Proc. IEEE 60(1), 1972): F(x) = Phi(x) - x, where Phi runs one
+/// period; Newton with a finite-difference Jacobian (one extra one-period run
+/// per state), steps limited and halved while the residual does not fall. If
+/// Newton fails to converge in `max_newton` iterations (or the Jacobian is
+/// singular) it continues period by period from the best state found, and
+/// stops when `consecutive` period-to-period changes in a row are within the
+/// tolerance. Never throws for a bad circuit.
+SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRenderer& render,
+                                          const std::vector<std::string>& vectors,
+                                          const std::vector<SlowState>& states, double period_s,
+                                          const SteadyStateOptions& options);
+
+}  // namespace zvsmap
