@@ -25,6 +25,7 @@ struct EdgeMeasurement {
   std::string cell;   ///< cell name from the template
   std::string edge;   ///< "high_on" (node rises) or "low_on" (node falls)
   ZvsClass zvs = ZvsClass::kUnknown;
+  std::string criterion;  ///< the ZVS criterion the class was judged by, e.g. "v_turn_on <= 10% of rail"
   std::vector<Metric> metrics;  ///< in a fixed order (see commutation.h)
 
   /// The value of a metric by column name, or NaN.
