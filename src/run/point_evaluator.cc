@@ -1,10 +1,13 @@
 #include "run/point_evaluator.h"
 
 #include <algorithm>
+#include <cctype>
 #include <chrono>
 
 #include "analysis/commutation.h"
 #include "analysis/edge_finder.h"
+#include "core/spice_number.h"
+#include "sim/steady_state.h"
 
 namespace zvsmap {
 
@@ -43,6 +46,23 @@ TranSettings PointEvaluator::TranFor(const Variables& resolved, double period_s)
   return tran;
 }
 
+namespace {
+
+// `tran` (step bound and tolerances) for a run of whole periods from t = 0,
+// every sample stored (the settling runs read each period's ripple).
+TranSettings TranForPeriods(TranSettings tran, double period_s, int periods) {
+  tran.tstop_s = periods * period_s;
+  tran.tstart_s = 0;
+  return tran;
+}
+
+std::string LowerAscii(std::string s) {
+  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return s;
+}
+
+}  // namespace
+
 bool PointEvaluator::Render(const Point& point, std::string* netlist, Diagnostic* error) const {
   Variables resolved;
   double period = 0;
@@ -71,19 +91,87 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
     result.reason = error.Format();
     return finish();
   }
-  TranSettings tran = TranFor(resolved, period);
-  std::string netlist = RenderNetlist(tmpl_, resolved, tran, VectorsToSave(tmpl_));
-  SimulationOutput out = simulator.Run(netlist, VectorsToSave(tmpl_), tran.tstop_s);
+
+  // Settle: the slow states start from the template's own init expressions
+  // (the average-model state); each run re-renders with the init params set.
+  const SimulationSettings& sim = spec_.simulation;
+  const std::vector<std::string> vectors = VectorsToSave(tmpl_);
+  std::vector<SlowState> states;
+  for (const auto& s : tmpl_.states) {
+    states.push_back({s.vector, resolved.at(s.init_param), SlowStateFloor(s.vector)});
+  }
+  auto render = [&](const std::vector<double>& x, int periods, std::string* netlist,
+                    std::string* why) {
+    std::vector<ParamValue> values = point.values;
+    for (size_t i = 0; i < x.size(); ++i) {
+      const std::string& name = tmpl_.states[i].init_param;
+      auto it = std::find_if(values.begin(), values.end(), [&](const ParamValue& v) {
+        return LowerAscii(v.name) == name;
+      });
+      if (it != values.end()) {
+        it->value = x[i];
+      } else {
+        values.push_back({name, x[i]});
+      }
+    }
+    Variables r;
+    Diagnostic d;
+    if (!ResolveParams(tmpl_, values, &r, &d)) {
+      *why = d.Format();
+      return false;
+    }
+    *netlist = RenderNetlist(tmpl_, r, TranForPeriods(TranFor(r, period), period, periods),
+                             vectors);
+    return true;
+  };
+  SteadyStateOptions options;
+  options.method = sim.settle_method == "periods" ? SteadyStateOptions::Method::kPeriods
+                                                  : SteadyStateOptions::Method::kShooting;
+  options.tolerance = sim.settle_tolerance;
+  options.max_newton = sim.max_newton;
+  options.max_periods = sim.max_periods;
+  options.chunk_periods = std::max(1, std::min(sim.settle_periods, sim.max_periods));
+  SteadyStateResult ss = FindPeriodicSteadyState(simulator, render, vectors, states, period,
+                                                 options);
+  result.settle.method = ss.method;
+  result.settle.iterations = ss.iterations;
+  result.settle.periods = ss.periods;
+  result.settle.residual = ss.residual;
+  for (size_t i = 0; i < states.size() && i < ss.state.size(); ++i) {
+    result.settle.initial_state.emplace_back(tmpl_.states[i].init_param, ss.state[i]);
+  }
+  if (!ss.ok) {
+    result.reason = "while settling: " + ss.error;
+    result.log = ss.log;
+    return finish();
+  }
+  if (!ss.settled) {
+    // Not measured: numbers from an unsettled period would look trustworthy.
+    result.status = PointStatus::kUnsettled;
+    result.reason = "not settled after " + std::to_string(ss.periods) +
+                    " periods: residual " + FormatNumber(ss.residual) + " > tolerance " +
+                    FormatNumber(options.tolerance) + " (relative to the ripple)";
+    return finish();
+  }
+
+  // The measured run: measure_periods (>= 2) from the settled state.
+  int measured = std::max(2, sim.measure_periods);
+  std::string netlist, why;
+  if (!render(ss.state, measured, &netlist, &why)) {
+    result.reason = why;
+    return finish();
+  }
+  SimulationOutput out = simulator.Run(netlist, vectors, measured * period);
+  result.settle.periods += measured;
   if (!out.ok) {
     result.reason = out.error;
     result.log = out.log;
     return finish();
   }
-  result.settle.method = "periods";
-  result.settle.periods = static_cast<int>(tran.tstop_s / period + 0.5);
 
   for (const auto& cell : tmpl_.cells) {
     std::vector<EdgeTiming> edges = FindEdges(cell, out.waves, 0.02 * period);
+    EdgeParams edge_params = EdgeParamsFor(cell, resolved);
     for (const char* name : {"high_on", "low_on"}) {
       auto it = std::find_if(edges.begin(), edges.end(),
                              [&](const EdgeTiming& e) { return e.edge == name; });
@@ -94,7 +182,7 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
         result.log = out.log;
         return finish();
       }
-      result.edges.push_back(MeasureEdge(cell, out.waves, *it, spec_.zvs));
+      result.edges.push_back(MeasureEdge(cell, out.waves, *it, spec_.zvs, edge_params));
     }
   }
   result.status = PointStatus::kOk;

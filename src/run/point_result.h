@@ -4,6 +4,7 @@
 #include <cstddef>
 #include <limits>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "analysis/edge_metrics.h"
@@ -23,6 +24,8 @@ struct SettleInfo {
   int iterations = 0;      ///< Newton iterations (shooting) or 0
   int periods = 0;         ///< switching periods simulated in all
   double residual = std::numeric_limits<double>::quiet_NaN();  ///< final relative residual
+  /// The settled start-of-period state: (init param, value), in template order.
+  std::vector<std::pair<std::string, double>> initial_state;
 };
 
 /// One point's result, as the run store and the reports see it.
