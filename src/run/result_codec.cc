@@ -1,0 +1,140 @@
+#include "run/result_codec.h"
+
+#include <cstdint>
+#include <cstring>
+
+namespace zvsmap {
+namespace {
+
+constexpr uint8_t kFormat = 2;
+// Upper bound for any count read back; a corrupt length must not make the
+// decoder reserve gigabytes.
+constexpr uint32_t kMaxCount = 1u << 24;
+
+class Writer {
+ public:
+  void U8(uint8_t v) { out_.push_back(static_cast<char>(v)); }
+  void U32(uint32_t v) { Raw(&v, sizeof v); }
+  void U64(uint64_t v) { Raw(&v, sizeof v); }
+  void I32(int32_t v) { Raw(&v, sizeof v); }
+  void F64(double v) { Raw(&v, sizeof v); }
+  void Str(const std::string& s) {
+    U32(static_cast<uint32_t>(s.size()));
+    out_.append(s);
+  }
+  std::string Take() { return std::move(out_); }
+
+ private:
+  void Raw(const void* p, size_t n) { out_.append(static_cast<const char*>(p), n); }
+  std::string out_;
+};
+
+class Reader {
+ public:
+  explicit Reader(const std::string& in) : in_(in) {}
+  bool U8(uint8_t* v) { return Raw(v, sizeof *v); }
+  bool U32(uint32_t* v) { return Raw(v, sizeof *v); }
+  bool U64(uint64_t* v) { return Raw(v, sizeof *v); }
+  bool I32(int32_t* v) { return Raw(v, sizeof *v); }
+  bool F64(double* v) { return Raw(v, sizeof *v); }
+  bool Str(std::string* s) {
+    uint32_t n = 0;
+    if (!U32(&n) || n > in_.size() - pos_) return false;
+    s->assign(in_, pos_, n);
+    pos_ += n;
+    return true;
+  }
+  bool AtEnd() const { return pos_ == in_.size(); }
+
+ private:
+  bool Raw(void* p, size_t n) {
+    if (in_.size() - pos_ < n) return false;
+    std::memcpy(p, in_.data() + pos_, n);
+    pos_ += n;
+    return true;
+  }
+  const std::string& in_;
+  size_t pos_ = 0;
+};
+
+}  // namespace
+
+std::string EncodeResult(const PointResult& r) {
+  Writer w;
+  w.U8(kFormat);
+  w.U64(r.index);
+  w.U8(static_cast<uint8_t>(r.status));
+  w.Str(r.reason);
+  w.Str(r.log);
+  w.Str(r.settle.method);
+  w.I32(r.settle.iterations);
+  w.I32(r.settle.periods);
+  w.F64(r.settle.residual);
+  w.U32(static_cast<uint32_t>(r.settle.initial_state.size()));
+  for (const auto& [name, value] : r.settle.initial_state) {
+    w.Str(name);
+    w.F64(value);
+  }
+  w.F64(r.wall_s);
+  w.U32(static_cast<uint32_t>(r.edges.size()));
+  for (const auto& e : r.edges) {
+    w.Str(e.cell);
+    w.Str(e.edge);
+    w.U8(static_cast<uint8_t>(e.zvs));
+    w.Str(e.criterion);
+    w.U32(static_cast<uint32_t>(e.metrics.size()));
+    for (const auto& m : e.metrics) {
+      w.Str(m.column);
+      w.F64(m.value);
+    }
+  }
+  return w.Take();
+}
+
+bool DecodeResult(const std::string& data, PointResult* out) {
+  Reader r(data);
+  uint8_t format = 0, status = 0;
+  uint64_t index = 0;
+  int32_t iterations = 0, periods = 0;
+  uint32_t edge_count = 0, state_count = 0;
+  if (!r.U8(&format) || format != kFormat || !r.U64(&index) || !r.U8(&status) ||
+      status > static_cast<uint8_t>(PointStatus::kUnsettled) || !r.Str(&out->reason) ||
+      !r.Str(&out->log) || !r.Str(&out->settle.method) || !r.I32(&iterations) ||
+      !r.I32(&periods) || !r.F64(&out->settle.residual) || !r.U32(&state_count) ||
+      state_count > kMaxCount) {
+    return false;
+  }
+  out->settle.initial_state.clear();
+  for (uint32_t i = 0; i < state_count; ++i) {
+    std::pair<std::string, double> state;
+    if (!r.Str(&state.first) || !r.F64(&state.second)) return false;
+    out->settle.initial_state.push_back(std::move(state));
+  }
+  if (!r.F64(&out->wall_s) || !r.U32(&edge_count) || edge_count > kMaxCount) return false;
+  out->index = static_cast<size_t>(index);
+  out->status = static_cast<PointStatus>(status);
+  out->settle.iterations = iterations;
+  out->settle.periods = periods;
+  out->edges.clear();
+  for (uint32_t i = 0; i < edge_count; ++i) {
+    EdgeMeasurement e;
+    uint8_t zvs = 0;
+    uint32_t metric_count = 0;
+    if (!r.Str(&e.cell) || !r.Str(&e.edge) || !r.U8(&zvs) ||
+        zvs > static_cast<uint8_t>(ZvsClass::kUnknown) || !r.Str(&e.criterion) ||
+        !r.U32(&metric_count) ||
+        metric_count > kMaxCount) {
+      return false;
+    }
+    e.zvs = static_cast<ZvsClass>(zvs);
+    for (uint32_t k = 0; k < metric_count; ++k) {
+      Metric m;
+      if (!r.Str(&m.column) || !r.F64(&m.value)) return false;
+      e.metrics.push_back(std::move(m));
+    }
+    out->edges.push_back(std::move(e));
+  }
+  return r.AtEnd();
+}
+
+}  // namespace zvsmap

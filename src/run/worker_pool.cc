@@ -1,0 +1,412 @@
+#include "run/worker_pool.h"
+
+#include <fcntl.h>
+#include <poll.h>
+#include <sys/prctl.h>
+#include <sys/socket.h>
+#include <sys/stat.h>
+#include <sys/wait.h>
+#include <unistd.h>
+
+#include <algorithm>
+#include <cerrno>
+#include <chrono>
+#include <cstdint>
+#include <cstdio>
+#include <cstdlib>
+#include <cstring>
+#include <deque>
+#include <filesystem>
+#include <map>
+
+#include "run/result_codec.h"
+
+namespace zvsmap {
+namespace {
+
+using Clock = std::chrono::steady_clock;
+
+// Message from worker to parent: u32 payload length, u8 flags, payload.
+constexpr uint8_t kFlagExiting = 1;  // the worker quits after this message
+constexpr size_t kHeader = 5;
+
+enum class Fault { kNone, kHang, kSegv, kExitCallback };
+
+std::map<size_t, Fault> ParseFaults(const std::string& spec) {
+  std::map<size_t, Fault> faults;
+  size_t pos = 0;
+  while (pos < spec.size()) {
+    size_t end = spec.find(',', pos);
+    if (end == std::string::npos) end = spec.size();
+    std::string item = spec.substr(pos, end - pos);
+    size_t colon = item.find(':');
+    if (colon != std::string::npos) {
+      std::string kind = item.substr(0, colon);
+      size_t index = std::strtoull(item.c_str() + colon + 1, nullptr, 10);
+      if (kind == "hang") faults[index] = Fault::kHang;
+      if (kind == "segv") faults[index] = Fault::kSegv;
+      if (kind == "exitcb") faults[index] = Fault::kExitCallback;
+    }
+    pos = end + 1;
+  }
+  return faults;
+}
+
+// Passes runs through and remembers whether the simulator became unusable.
+class PoisonWatch : public Simulator {
+ public:
+  explicit PoisonWatch(Simulator& inner) : inner_(inner) {}
+  SimulationOutput Run(const std::string& netlist, const std::vector<std::string>& vectors,
+                       double tstop_s) override {
+    SimulationOutput out = inner_.Run(netlist, vectors, tstop_s);
+    poisoned_ = poisoned_ || out.poisoned;
+    return out;
+  }
+  bool poisoned() const { return poisoned_; }
+
+ private:
+  Simulator& inner_;
+  bool poisoned_ = false;
+};
+
+bool WriteAll(int fd, const char* data, size_t size) {
+  while (size > 0) {
+    ssize_t n = send(fd, data, size, MSG_NOSIGNAL);
+    if (n < 0 && errno == EINTR) continue;
+    if (n <= 0) return false;
+    data += n;
+    size -= static_cast<size_t>(n);
+  }
+  return true;
+}
+
+// Reads exactly `size` bytes; false on end of file or error.
+bool ReadAll(int fd, char* data, size_t size) {
+  while (size > 0) {
+    ssize_t n = read(fd, data, size);
+    if (n < 0 && errno == EINTR) continue;
+    if (n <= 0) return false;
+    data += n;
+    size -= static_cast<size_t>(n);
+  }
+  return true;
+}
+
+std::string Seconds(double s) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.3g", s);
+  return buf;
+}
+
+std::string DeathReason(int status) {
+  if (WIFSIGNALED(status)) return "crash (signal " + std::to_string(WTERMSIG(status)) + ")";
+  if (WIFEXITED(status)) return "crash (exit " + std::to_string(WEXITSTATUS(status)) + ")";
+  return "crash";
+}
+
+}  // namespace
+
+double DerivedTimeout(const std::vector<double>& first_durations_s) {
+  if (first_durations_s.empty()) return 300;
+  double longest = 0;
+  for (size_t i = 0; i < first_durations_s.size() && i < 3; ++i) {
+    longest = std::max(longest, first_durations_s[i]);
+  }
+  return std::max(30.0, 20 * longest);
+}
+
+struct WorkerPool::Worker {
+  pid_t pid = -1;
+  int fd = -1;
+  bool busy = false;
+  size_t index = 0;
+  Clock::time_point started;
+  std::string inbox;
+  size_t points_done = 0;
+  bool alive() const { return pid > 0; }
+};
+
+WorkerPool::WorkerPool(PointJob job, SimulatorFactory factory, WorkerPoolOptions options)
+    : job_(std::move(job)), factory_(std::move(factory)), options_(std::move(options)) {
+  jobs_ = options_.jobs > 0 ? options_.jobs : static_cast<int>(sysconf(_SC_NPROCESSORS_ONLN));
+  if (jobs_ < 1) jobs_ = 1;
+  const char* tmp = std::getenv("TMPDIR");
+  std::string pattern = std::string(tmp && *tmp ? tmp : "/tmp") + "/zvsmap-XXXXXX";
+  if (mkdtemp(&pattern[0]) != nullptr) temp_dir_ = pattern;
+}
+
+WorkerPool::~WorkerPool() {
+  for (auto& w : workers_) Retire(w.get());
+  if (!temp_dir_.empty()) {
+    std::error_code ec;
+    std::filesystem::remove_all(temp_dir_, ec);
+  }
+}
+
+void WorkerPool::Retire(Worker* w) {
+  if (!w->alive()) return;
+  close(w->fd);
+  kill(w->pid, SIGKILL);
+  while (waitpid(w->pid, nullptr, 0) < 0 && errno == EINTR) {
+  }
+  w->pid = -1;
+  w->fd = -1;
+  w->busy = false;
+  w->inbox.clear();
+}
+
+bool WorkerPool::Spawn(Worker* w, std::string* error) {
+  int fds[2];
+  if (socketpair(AF_UNIX, SOCK_STREAM, 0, fds) != 0) {
+    *error = std::string("socketpair: ") + std::strerror(errno);
+    return false;
+  }
+  std::fflush(nullptr);  // nothing buffered may be written twice
+  pid_t pid = fork();
+  if (pid < 0) {
+    *error = std::string("fork: ") + std::strerror(errno);
+    close(fds[0]);
+    close(fds[1]);
+    return false;
+  }
+  if (pid == 0) {
+    close(fds[0]);
+    // Other workers' sockets must close here, or their EOF never arrives.
+    for (auto& other : workers_) {
+      if (other->fd >= 0) close(other->fd);
+    }
+    WorkerMain(fds[1]);
+  }
+  close(fds[1]);
+  fcntl(fds[0], F_SETFL, fcntl(fds[0], F_GETFL) | O_NONBLOCK);
+  fcntl(fds[0], F_SETFD, FD_CLOEXEC);
+  w->pid = pid;
+  w->fd = fds[0];
+  w->busy = false;
+  w->inbox.clear();
+  w->points_done = 0;
+  return true;
+}
+
+void WorkerPool::WorkerMain(int fd) {
+  // The parent decides when a worker ends: Ctrl-C reaches the whole process
+  // group, so workers ignore SIGINT; SIGTERM kills them; they die with the parent.
+  signal(SIGINT, SIG_IGN);
+  signal(SIGTERM, SIG_DFL);
+  signal(SIGPIPE, SIG_DFL);
+  prctl(PR_SET_PDEATHSIG, SIGKILL);
+  if (getppid() == 1) _exit(0);
+  // A private working directory and HOME: ngspice reads ./.spiceinit and ~/.spiceinit.
+  std::string dir = (temp_dir_.empty() ? std::string("/tmp") : temp_dir_) + "/w" +
+                    std::to_string(getpid());
+  if (mkdir(dir.c_str(), 0700) != 0 || chdir(dir.c_str()) != 0) _exit(70);
+  setenv("HOME", dir.c_str(), 1);
+
+  std::map<size_t, Fault> faults = ParseFaults(options_.fault_spec);
+  std::unique_ptr<Simulator> simulator;
+  try {
+    simulator = factory_();
+  } catch (...) {
+    _exit(71);
+  }
+  PoisonWatch watch(*simulator);
+  for (;;) {
+    uint64_t index = 0;
+    if (!ReadAll(fd, reinterpret_cast<char*>(&index), sizeof index)) _exit(0);
+    auto fault = faults.find(static_cast<size_t>(index));
+    Fault kind = fault == faults.end() ? Fault::kNone : fault->second;
+    if (kind == Fault::kHang) {
+      for (;;) pause();
+    }
+    if (kind == Fault::kSegv) raise(SIGSEGV);
+    PointResult result;
+    if (kind == Fault::kExitCallback) {
+      result.index = static_cast<size_t>(index);
+      result.reason = "engine error: ngspice stopped (exit callback; test fault)";
+    } else {
+      try {
+        result = job_(static_cast<size_t>(index), watch);
+      } catch (const std::exception& e) {
+        result = PointResult();
+        result.index = static_cast<size_t>(index);
+        result.reason = std::string("internal error: ") + e.what();
+      }
+    }
+    bool exiting = watch.poisoned() || kind == Fault::kExitCallback;
+    std::string payload = EncodeResult(result);
+    char header[kHeader];
+    uint32_t size = static_cast<uint32_t>(payload.size());
+    std::memcpy(header, &size, 4);
+    header[4] = static_cast<char>(exiting ? kFlagExiting : 0);
+    if (!WriteAll(fd, header, kHeader) || !WriteAll(fd, payload.data(), payload.size())) {
+      _exit(0);
+    }
+    if (exiting) _exit(0);
+  }
+}
+
+PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
+                            const std::function<void(PointResult&&)>& on_result,
+                            const volatile std::sig_atomic_t* stop) {
+  PoolOutcome outcome;
+  std::deque<size_t> queue(indices.begin(), indices.end());
+  size_t want = std::min(static_cast<size_t>(jobs_), queue.size());
+  while (workers_.size() < want) workers_.push_back(std::make_unique<Worker>());
+  std::vector<double> first_durations;
+  size_t idle_deaths = 0;  // workers that died without a point: a broken set-up
+
+  auto elapsed = [](const Worker& w) {
+    return std::chrono::duration<double>(Clock::now() - w.started).count();
+  };
+  auto report_failure = [&](size_t index, double wall_s, const std::string& reason) {
+    PointResult r;
+    r.index = index;
+    r.status = PointStatus::kFailed;
+    r.reason = reason;
+    r.wall_s = wall_s;
+    on_result(std::move(r));
+  };
+  auto fail_point = [&](Worker& w, const std::string& reason) {
+    w.busy = false;
+    report_failure(w.index, elapsed(w), reason);
+  };
+  auto busy_count = [&] {
+    size_t n = 0;
+    for (auto& w : workers_) n += w->busy ? 1 : 0;
+    return n;
+  };
+
+  while (!queue.empty() || busy_count() > 0) {
+    if (stop && *stop) {
+      for (auto& w : workers_) Retire(w.get());
+      outcome.interrupted = true;
+      return outcome;
+    }
+    // Start workers where needed and hand out points.
+    for (auto& wp : workers_) {
+      Worker& w = *wp;
+      if (queue.empty()) break;
+      if (!w.alive()) {
+        if (!Spawn(&w, &outcome.error)) {
+          outcome.ok = false;
+          for (auto& x : workers_) Retire(x.get());
+          return outcome;
+        }
+        ++outcome.workers_started;
+      }
+      if (w.busy) continue;
+      uint64_t index = queue.front();
+      if (!WriteAll(w.fd, reinterpret_cast<const char*>(&index), sizeof index)) {
+        Retire(&w);  // died while idle; respawned on the next pass
+        if (++idle_deaths > 3 * static_cast<size_t>(jobs_) + 3) {
+          outcome.ok = false;
+          outcome.error = "workers keep dying before they run a point";
+          return outcome;
+        }
+        continue;
+      }
+      queue.pop_front();
+      w.busy = true;
+      w.index = static_cast<size_t>(index);
+      w.started = Clock::now();
+      if (options_.on_dispatch) options_.on_dispatch(w.index, w.pid);
+    }
+
+    double timeout_s = options_.timeout_s > 0 ? options_.timeout_s : DerivedTimeout(first_durations);
+    std::vector<pollfd> fds;
+    std::vector<Worker*> polled;
+    int wait_ms = 250;
+    for (auto& wp : workers_) {
+      if (!wp->alive()) continue;
+      fds.push_back({wp->fd, POLLIN, 0});
+      polled.push_back(wp.get());
+      if (wp->busy) {
+        double left_ms = (timeout_s - elapsed(*wp)) * 1000;
+        wait_ms = std::max(0, std::min(wait_ms, static_cast<int>(left_ms) + 1));
+      }
+    }
+    int n = poll(fds.data(), fds.size(), wait_ms);
+    if (n < 0 && errno != EINTR) {
+      outcome.ok = false;
+      outcome.error = std::string("poll: ") + std::strerror(errno);
+      for (auto& w : workers_) Retire(w.get());
+      return outcome;
+    }
+    if (stop && *stop) continue;
+
+    for (size_t k = 0; n > 0 && k < fds.size(); ++k) {
+      if (fds[k].revents == 0) continue;
+      Worker& w = *polled[k];
+      bool eof = false;
+      char buf[65536];
+      for (;;) {
+        ssize_t got = read(w.fd, buf, sizeof buf);
+        if (got > 0) {
+          w.inbox.append(buf, static_cast<size_t>(got));
+          continue;
+        }
+        if (got < 0 && errno == EINTR) continue;
+        if (got == 0 || (errno != EAGAIN && errno != EWOULDBLOCK)) eof = true;
+        break;
+      }
+      bool exiting = false;
+      while (w.inbox.size() >= kHeader) {
+        uint32_t size = 0;
+        std::memcpy(&size, w.inbox.data(), 4);
+        if (w.inbox.size() < kHeader + size) break;
+        exiting = exiting || (static_cast<uint8_t>(w.inbox[4]) & kFlagExiting);
+        std::string payload = w.inbox.substr(kHeader, size);
+        w.inbox.erase(0, kHeader + size);
+        if (!w.busy) continue;  // nothing asked: ignore
+        PointResult r;
+        if (!DecodeResult(payload, &r) || r.index != w.index) {
+          fail_point(w, "internal error: malformed result from the worker");
+          exiting = true;
+          continue;
+        }
+        if (first_durations.size() < 3) first_durations.push_back(elapsed(w));
+        w.busy = false;
+        ++w.points_done;
+        idle_deaths = 0;
+        on_result(std::move(r));
+      }
+      if (eof && !exiting) {
+        // Died: reap it and say how.
+        close(w.fd);
+        int status = 0;
+        while (waitpid(w.pid, &status, 0) < 0 && errno == EINTR) {
+        }
+        w.pid = -1;
+        w.fd = -1;
+        w.inbox.clear();
+        if (w.busy) {
+          fail_point(w, DeathReason(status));
+        } else if (++idle_deaths > 3 * static_cast<size_t>(jobs_) + 3) {
+          outcome.ok = false;
+          outcome.error = "workers keep dying before they run a point: " + DeathReason(status);
+          for (auto& x : workers_) Retire(x.get());
+          return outcome;
+        }
+        continue;
+      }
+      if (exiting || (options_.recycle_after > 0 && w.points_done >= options_.recycle_after)) {
+        if (!w.busy) Retire(&w);
+      }
+    }
+
+    // Points past their time limit: kill the worker, report, replace later.
+    for (auto& wp : workers_) {
+      Worker& w = *wp;
+      if (w.busy && elapsed(w) > timeout_s) {
+        double took = elapsed(w);
+        size_t index = w.index;
+        Retire(&w);
+        report_failure(index, took, "timeout after " + Seconds(timeout_s) + " s");
+      }
+    }
+  }
+  for (auto& w : workers_) Retire(w.get());
+  return outcome;
+}
+
+}  // namespace zvsmap

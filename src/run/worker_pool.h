@@ -1,0 +1,88 @@
+// A pool of forked worker processes, each with its own simulator (ngspice is
+// not re-entrant and some of its errors crash or poison the process).
+#pragma once
+
+#include <sys/types.h>
+
+#include <csignal>
+#include <cstddef>
+#include <functional>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "run/point_result.h"
+#include "sim/simulator.h"
+
+namespace zvsmap {
+
+/// Evaluates point `index` inside a worker with that worker's simulator.
+using PointJob = std::function<PointResult(size_t index, Simulator& simulator)>;
+/// Creates a worker's simulator; called in the worker process, never in the parent.
+using SimulatorFactory = std::function<std::unique_ptr<Simulator>()>;
+
+/// How the pool runs its workers.
+struct WorkerPoolOptions {
+  int jobs = 0;               ///< worker processes; 0 = number of online CPUs
+  double timeout_s = 0;       ///< per-point wall-clock limit; 0 = derived (see EffectiveTimeout)
+  size_t recycle_after = 200; ///< a worker is replaced after this many points; 0 = never
+  /// Test-only fault switch, read by the worker loop: a comma list of
+  /// kind:index with kind hang (sleep forever), segv (raise SIGSEGV) or exitcb
+  /// (report an engine error as if ngspice's exit callback fired, then quit).
+  /// cmd_run fills it from the environment variable ZVSMAP_TEST_FAULT.
+  std::string fault_spec;
+  /// Test hook, called in the parent when `index` is sent to worker `pid`.
+  std::function<void(size_t index, pid_t pid)> on_dispatch;
+};
+
+/// Without a set timeout, until a point has finished: 300 s. Afterwards
+/// max(30 s, 20 x the longest of the first three finished points).
+double DerivedTimeout(const std::vector<double>& first_durations_s);
+
+/// What a Run did.
+struct PoolOutcome {
+  bool interrupted = false;  ///< `*stop` became non-zero; unfinished points were dropped
+  bool ok = true;            ///< false: the pool could not work (see error)
+  std::string error;
+  size_t workers_started = 0;
+};
+
+/// Forks workers on demand, sends them point indices over a socketpair and
+/// collects encoded results. A worker that crashes, exceeds the timeout or
+/// reports a poisoned simulator is killed and replaced; its point gets a
+/// failed result with the reason ("crash (signal N)", "crash (exit N)",
+/// "timeout after N s", or the engine's message). Create it after everything
+/// the workers need is in memory: they inherit the parent's state by fork.
+class WorkerPool {
+ public:
+  WorkerPool(PointJob job, SimulatorFactory factory, WorkerPoolOptions options);
+  ~WorkerPool();
+  WorkerPool(const WorkerPool&) = delete;
+  WorkerPool& operator=(const WorkerPool&) = delete;
+
+  /// Evaluates every index in `indices` and calls `on_result` (in the parent,
+  /// in completion order) once per finished point. Returns early, killing the
+  /// workers, when `stop` is non-null and becomes non-zero; points in flight
+  /// are then not reported.
+  PoolOutcome Run(const std::vector<size_t>& indices,
+                  const std::function<void(PointResult&&)>& on_result,
+                  const volatile std::sig_atomic_t* stop = nullptr);
+
+  /// The number of workers the pool runs at most.
+  int jobs() const { return jobs_; }
+
+ private:
+  struct Worker;
+  bool Spawn(Worker* w, std::string* error);
+  void Retire(Worker* w);
+  [[noreturn]] void WorkerMain(int fd);
+
+  PointJob job_;
+  SimulatorFactory factory_;
+  WorkerPoolOptions options_;
+  int jobs_ = 1;
+  std::string temp_dir_;
+  std::vector<std::unique_ptr<Worker>> workers_;
+};
+
+}  // namespace zvsmap

@@ -1,0 +1,64 @@
+#include "store/content_hash.h"
+
+#include <cstdio>
+#include <fstream>
+#include <sstream>
+
+namespace zvsmap {
+
+uint64_t Fnv1a64(const std::string& data, uint64_t seed) {
+  uint64_t h = seed;
+  for (unsigned char c : data) {
+    h ^= c;
+    h *= 1099511628211ull;
+  }
+  return h;
+}
+
+std::string HexHash(uint64_t hash) {
+  char buf[17];
+  std::snprintf(buf, sizeof buf, "%016llx", static_cast<unsigned long long>(hash));
+  return buf;
+}
+
+namespace {
+
+std::string ReadFile(const std::string& path) {
+  std::ifstream in(path, std::ios::binary);
+  if (!in) return "";
+  std::ostringstream text;
+  text << in.rdbuf();
+  return text.str();
+}
+
+// Field separator that cannot occur in text files' content boundaries by accident.
+const std::string kSeparator("\0\x1f", 2);
+
+}  // namespace
+
+std::string SweepIdentity(const std::string& sweep_path, const std::string& template_path) {
+  uint64_t h = Fnv1a64(ReadFile(sweep_path));
+  h = Fnv1a64(kSeparator, h);
+  h = Fnv1a64(ReadFile(template_path), h);
+  return HexHash(h);
+}
+
+std::string PointContentHash(const std::string& rendered_netlist, const SweepSpec& spec,
+                             const Template& tmpl) {
+  uint64_t h = Fnv1a64(rendered_netlist);
+  char buf[160];
+  const SimulationSettings& s = spec.simulation;
+  std::snprintf(buf, sizeof buf, "settle=%d measure=%d max_step=%.17g reltol=%.17g", s.settle_periods,
+                s.measure_periods, s.max_step_s, s.reltol);
+  h = Fnv1a64(kSeparator + buf, h);
+  std::snprintf(buf, sizeof buf, "zvs=%d:%.17g",
+                spec.zvs.kind == ZvsCriterion::Kind::kAbsolute ? 0 : 1, spec.zvs.value);
+  h = Fnv1a64(kSeparator + buf, h);
+  for (const auto& line : tmpl.lines) {
+    if (line.second.compare(0, 2, "*@") == 0) h = Fnv1a64(kSeparator + line.second, h);
+  }
+  h = Fnv1a64(kSeparator + ZVSMAP_VERSION, h);
+  return HexHash(h);
+}
+
+}  // namespace zvsmap

@@ -1,0 +1,309 @@
+#include "store/run_store.h"
+
+#include <sqlite3.h>
+
+#include <cmath>
+#include <cstdio>
+#include <cstdlib>
+#include <limits>
+
+namespace zvsmap {
+namespace {
+
+constexpr const char* kSchema =
+    "CREATE TABLE IF NOT EXISTS meta(key TEXT PRIMARY KEY, value TEXT NOT NULL);"
+    "CREATE TABLE IF NOT EXISTS points(idx INTEGER PRIMARY KEY, params TEXT NOT NULL,"
+    " content_hash TEXT NOT NULL, status TEXT NOT NULL, reason TEXT NOT NULL,"
+    " settle_method TEXT NOT NULL, settle_iterations INTEGER NOT NULL,"
+    " settle_periods INTEGER NOT NULL, settle_residual, settle_state TEXT NOT NULL, wall_s,"
+    " log TEXT NOT NULL);"
+    "CREATE TABLE IF NOT EXISTS edges(point INTEGER NOT NULL, ord INTEGER NOT NULL,"
+    " cell TEXT NOT NULL, edge TEXT NOT NULL, zvs TEXT NOT NULL, criterion TEXT NOT NULL,"
+    " PRIMARY KEY(point, ord));"
+    "CREATE TABLE IF NOT EXISTS metrics(point INTEGER NOT NULL, edge INTEGER NOT NULL,"
+    " ord INTEGER NOT NULL, column_name TEXT NOT NULL, value,"
+    " PRIMARY KEY(point, edge, ord));";
+
+// A prepared statement that finalizes itself.
+class Statement {
+ public:
+  Statement(sqlite3* db, const char* sql) { sqlite3_prepare_v2(db, sql, -1, &stmt_, nullptr); }
+  ~Statement() { sqlite3_finalize(stmt_); }
+  bool ok() const { return stmt_ != nullptr; }
+  void Text(int i, const std::string& s) {
+    sqlite3_bind_text(stmt_, i, s.data(), static_cast<int>(s.size()), SQLITE_TRANSIENT);
+  }
+  void Int(int i, long long v) { sqlite3_bind_int64(stmt_, i, v); }
+  void Double(int i, double v) {
+    if (std::isnan(v)) {
+      sqlite3_bind_null(stmt_, i);
+    } else {
+      sqlite3_bind_double(stmt_, i, v);
+    }
+  }
+  int Step() { return sqlite3_step(stmt_); }
+  void Reset() {
+    sqlite3_reset(stmt_);
+    sqlite3_clear_bindings(stmt_);
+  }
+  std::string ColText(int i) {
+    const unsigned char* p = sqlite3_column_text(stmt_, i);
+    return p ? std::string(reinterpret_cast<const char*>(p),
+                           static_cast<size_t>(sqlite3_column_bytes(stmt_, i)))
+             : std::string();
+  }
+  long long ColInt(int i) { return sqlite3_column_int64(stmt_, i); }
+  double ColDouble(int i) {
+    if (sqlite3_column_type(stmt_, i) == SQLITE_NULL) {
+      return std::numeric_limits<double>::quiet_NaN();
+    }
+    return sqlite3_column_double(stmt_, i);
+  }
+
+ private:
+  sqlite3_stmt* stmt_ = nullptr;
+};
+
+PointStatus StatusFromName(const std::string& name) {
+  if (name == "ok") return PointStatus::kOk;
+  if (name == "unsettled") return PointStatus::kUnsettled;
+  return PointStatus::kFailed;
+}
+
+ZvsClass ZvsFromName(const std::string& name) {
+  for (ZvsClass c : {ZvsClass::kFull, ZvsClass::kPartial, ZvsClass::kHard}) {
+    if (name == ZvsClassName(c)) return c;
+  }
+  return ZvsClass::kUnknown;
+}
+
+// "name=value name=value", values with 17 significant digits (exact for
+// binary64: IEEE 754-2008, 5.12.2).
+std::string PairsText(const std::vector<std::pair<std::string, double>>& pairs) {
+  std::string text;
+  char buf[48];
+  for (const auto& [name, value] : pairs) {
+    std::snprintf(buf, sizeof buf, "%.17g", value);
+    if (!text.empty()) text += ' ';
+    text += name + "=" + buf;
+  }
+  return text;
+}
+
+std::vector<std::pair<std::string, double>> ParsePairs(const std::string& text) {
+  std::vector<std::pair<std::string, double>> pairs;
+  size_t pos = 0;
+  while (pos < text.size()) {
+    size_t end = text.find(' ', pos);
+    if (end == std::string::npos) end = text.size();
+    std::string item = text.substr(pos, end - pos);
+    size_t eq = item.rfind('=');
+    if (eq != std::string::npos) {
+      pairs.emplace_back(item.substr(0, eq), std::strtod(item.c_str() + eq + 1, nullptr));
+    }
+    pos = end + 1;
+  }
+  return pairs;
+}
+
+std::string ParamsText(const Point& point) {
+  std::vector<std::pair<std::string, double>> pairs;
+  for (const auto& v : point.values) pairs.emplace_back(v.name, v.value);
+  return PairsText(pairs);
+}
+
+}  // namespace
+
+RunStore::~RunStore() { sqlite3_close(db_); }
+
+std::unique_ptr<RunStore> RunStore::Open(const std::string& path, std::string* error) {
+  sqlite3* db = nullptr;
+  if (sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE, nullptr) !=
+      SQLITE_OK) {
+    *error = path + ": cannot open the run store: " + (db ? sqlite3_errmsg(db) : "out of memory");
+    sqlite3_close(db);
+    return nullptr;
+  }
+  std::unique_ptr<RunStore> store(new RunStore(db));
+  sqlite3_busy_timeout(db, 5000);
+  std::string why;
+  // WAL: a commit is one append to the log; a killed process loses nothing
+  // committed. synchronous=NORMAL is durable against process death (not
+  // against power loss of the last commits), which is what a rerun needs.
+  if (!store->Exec("PRAGMA journal_mode=WAL; PRAGMA synchronous=NORMAL;", &why) ||
+      !store->Exec(kSchema, &why)) {
+    *error = path + ": not a usable run store: " + why;
+    return nullptr;
+  }
+  return store;
+}
+
+bool RunStore::Exec(const char* sql, std::string* error) {
+  char* message = nullptr;
+  if (sqlite3_exec(db_, sql, nullptr, nullptr, &message) != SQLITE_OK) {
+    *error = message ? message : sqlite3_errmsg(db_);
+    sqlite3_free(message);
+    return false;
+  }
+  return true;
+}
+
+std::string RunStore::GetMeta(const std::string& key) {
+  Statement q(db_, "SELECT value FROM meta WHERE key = ?");
+  if (!q.ok()) return "";
+  q.Text(1, key);
+  return q.Step() == SQLITE_ROW ? q.ColText(0) : "";
+}
+
+bool RunStore::SetMeta(const std::string& key, const std::string& value, std::string* error) {
+  Statement q(db_, "INSERT OR REPLACE INTO meta(key, value) VALUES(?, ?)");
+  q.Text(1, key);
+  q.Text(2, value);
+  if (!q.ok() || q.Step() != SQLITE_DONE) {
+    *error = std::string("run store: ") + sqlite3_errmsg(db_);
+    return false;
+  }
+  return true;
+}
+
+bool RunStore::ListPoints(std::vector<StoredPointKey>* out, std::string* error) {
+  Statement q(db_, "SELECT idx, content_hash, status FROM points ORDER BY idx");
+  if (!q.ok()) {
+    *error = std::string("run store: ") + sqlite3_errmsg(db_);
+    return false;
+  }
+  int rc;
+  while ((rc = q.Step()) == SQLITE_ROW) {
+    out->push_back({static_cast<size_t>(q.ColInt(0)), q.ColText(1), StatusFromName(q.ColText(2))});
+  }
+  if (rc != SQLITE_DONE) {
+    *error = std::string("run store: ") + sqlite3_errmsg(db_);
+    return false;
+  }
+  return true;
+}
+
+bool RunStore::SavePoint(const Point& point, const std::string& content_hash,
+                         const PointResult& r, std::string* error) {
+  auto fail = [&](const char* what) {
+    *error = std::string("run store: ") + what + ": " + sqlite3_errmsg(db_);
+    std::string ignored;
+    Exec("ROLLBACK", &ignored);
+    return false;
+  };
+  std::string why;
+  if (!Exec("BEGIN IMMEDIATE", &why)) {
+    *error = "run store: " + why;
+    return false;
+  }
+  long long idx = static_cast<long long>(r.index);
+  {
+    Statement del_m(db_, "DELETE FROM metrics WHERE point = ?");
+    Statement del_e(db_, "DELETE FROM edges WHERE point = ?");
+    del_m.Int(1, idx);
+    del_e.Int(1, idx);
+    if (!del_m.ok() || !del_e.ok() || del_m.Step() != SQLITE_DONE || del_e.Step() != SQLITE_DONE) {
+      return fail("delete");
+    }
+    Statement ins(db_,
+                  "INSERT OR REPLACE INTO points(idx, params, content_hash, status, reason,"
+                  " settle_method, settle_iterations, settle_periods, settle_residual, settle_state,"
+                  " wall_s, log) VALUES(?,?,?,?,?,?,?,?,?,?,?,?)");
+    if (!ins.ok()) return fail("prepare");
+    ins.Int(1, idx);
+    ins.Text(2, ParamsText(point));
+    ins.Text(3, content_hash);
+    ins.Text(4, PointStatusName(r.status));
+    ins.Text(5, r.reason);
+    ins.Text(6, r.settle.method);
+    ins.Int(7, r.settle.iterations);
+    ins.Int(8, r.settle.periods);
+    ins.Double(9, r.settle.residual);
+    ins.Text(10, PairsText(r.settle.initial_state));
+    ins.Double(11, r.wall_s);
+    ins.Text(12, r.log);
+    if (ins.Step() != SQLITE_DONE) return fail("insert point");
+
+    Statement edge(db_, "INSERT INTO edges(point, ord, cell, edge, zvs, criterion) VALUES(?,?,?,?,?,?)");
+    Statement metric(db_,
+                     "INSERT INTO metrics(point, edge, ord, column_name, value) VALUES(?,?,?,?,?)");
+    if (!edge.ok() || !metric.ok()) return fail("prepare");
+    for (size_t e = 0; e < r.edges.size(); ++e) {
+      const EdgeMeasurement& m = r.edges[e];
+      edge.Reset();
+      edge.Int(1, idx);
+      edge.Int(2, static_cast<long long>(e));
+      edge.Text(3, m.cell);
+      edge.Text(4, m.edge);
+      edge.Text(5, ZvsClassName(m.zvs));
+      edge.Text(6, m.criterion);
+      if (edge.Step() != SQLITE_DONE) return fail("insert edge");
+      for (size_t k = 0; k < m.metrics.size(); ++k) {
+        metric.Reset();
+        metric.Int(1, idx);
+        metric.Int(2, static_cast<long long>(e));
+        metric.Int(3, static_cast<long long>(k));
+        metric.Text(4, m.metrics[k].column);
+        metric.Double(5, m.metrics[k].value);
+        if (metric.Step() != SQLITE_DONE) return fail("insert metric");
+      }
+    }
+  }
+  if (!Exec("COMMIT", &why)) {
+    *error = "run store: " + why;
+    Exec("ROLLBACK", &why);
+    return false;
+  }
+  return true;
+}
+
+bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* error) {
+  auto fail = [&]() {
+    *error = std::string("run store: ") + sqlite3_errmsg(db_);
+    return false;
+  };
+  Statement points(db_,
+                   "SELECT idx, status, reason, settle_method, settle_iterations, settle_periods,"
+                   " settle_residual, settle_state, wall_s, log FROM points ORDER BY idx");
+  Statement edges(db_, "SELECT point, cell, edge, zvs, criterion FROM edges ORDER BY point, ord");
+  Statement metrics(db_,
+                    "SELECT point, edge, column_name, value FROM metrics ORDER BY point, edge, ord");
+  if (!points.ok() || !edges.ok() || !metrics.ok()) return fail();
+  int rc;
+  while ((rc = points.Step()) == SQLITE_ROW) {
+    PointResult r;
+    r.index = static_cast<size_t>(points.ColInt(0));
+    r.status = StatusFromName(points.ColText(1));
+    r.reason = points.ColText(2);
+    r.settle.method = points.ColText(3);
+    r.settle.iterations = static_cast<int>(points.ColInt(4));
+    r.settle.periods = static_cast<int>(points.ColInt(5));
+    r.settle.residual = points.ColDouble(6);
+    r.settle.initial_state = ParsePairs(points.ColText(7));
+    r.wall_s = points.ColDouble(8);
+    r.log = points.ColText(9);
+    (*out)[r.index] = std::move(r);
+  }
+  if (rc != SQLITE_DONE) return fail();
+  while ((rc = edges.Step()) == SQLITE_ROW) {
+    auto it = out->find(static_cast<size_t>(edges.ColInt(0)));
+    if (it == out->end()) continue;
+    EdgeMeasurement e;
+    e.cell = edges.ColText(1);
+    e.edge = edges.ColText(2);
+    e.zvs = ZvsFromName(edges.ColText(3));
+    e.criterion = edges.ColText(4);
+    it->second.edges.push_back(std::move(e));
+  }
+  if (rc != SQLITE_DONE) return fail();
+  while ((rc = metrics.Step()) == SQLITE_ROW) {
+    auto it = out->find(static_cast<size_t>(metrics.ColInt(0)));
+    size_t e = static_cast<size_t>(metrics.ColInt(1));
+    if (it == out->end() || e >= it->second.edges.size()) continue;
+    it->second.edges[e].metrics.push_back({metrics.ColText(2), metrics.ColDouble(3)});
+  }
+  if (rc != SQLITE_DONE) return fail();
+  return true;
+}
+
+}  // namespace zvsmap

@@ -1,0 +1,64 @@
+// The run store: one SQLite database per output directory (DIR/run.sqlite,
+// WAL mode) holding every finished point as soon as it finishes.
+#pragma once
+
+#include <cstddef>
+#include <map>
+#include <memory>
+#include <string>
+#include <vector>
+
+#include "run/point_result.h"
+#include "sweep/point.h"
+
+struct sqlite3;
+
+namespace zvsmap {
+
+/// What a rerun needs to know about a stored point.
+struct StoredPointKey {
+  size_t index = 0;
+  std::string content_hash;
+  PointStatus status = PointStatus::kFailed;
+};
+
+/// Tables: meta(key, value); points(idx, params, content_hash, status,
+/// reason, settle_method, settle_iterations, settle_periods, settle_residual,
+/// settle_state ("name=value ..."), wall_s, log); edges(point, ord, cell, edge,
+/// zvs, criterion); metrics(point, edge, ord, column_name, value). A field
+/// added to PointResult goes into SavePoint and LoadResults (and the codec). Doubles are stored in untyped columns so they come
+/// back bit for bit (-0.0 too); NaN is stored as NULL and read back as NaN.
+/// Not safe to share across fork(): workers never touch it.
+class RunStore {
+ public:
+  ~RunStore();
+  RunStore(const RunStore&) = delete;
+  RunStore& operator=(const RunStore&) = delete;
+
+  /// Opens or creates the store at `path`. Returns null with `error` set when
+  /// the file cannot be opened or is not a zvsmap store.
+  static std::unique_ptr<RunStore> Open(const std::string& path, std::string* error);
+
+  /// A meta value ("" when absent).
+  std::string GetMeta(const std::string& key);
+  /// Sets a meta value.
+  bool SetMeta(const std::string& key, const std::string& value, std::string* error);
+
+  /// Every stored point's index, content hash and status.
+  bool ListPoints(std::vector<StoredPointKey>* out, std::string* error);
+
+  /// Replaces point `result.index` (its row, edges and metrics) in one
+  /// transaction, committed before this returns.
+  bool SavePoint(const Point& point, const std::string& content_hash, const PointResult& result,
+                 std::string* error);
+
+  /// Every stored result by index.
+  bool LoadResults(std::map<size_t, PointResult>* out, std::string* error);
+
+ private:
+  explicit RunStore(sqlite3* db) : db_(db) {}
+  bool Exec(const char* sql, std::string* error);
+  sqlite3* db_;
+};
+
+}  // namespace zvsmap

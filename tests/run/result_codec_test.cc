@@ -1,0 +1,74 @@
+// Unit tests of the worker -> parent result encoding.
+#include "run/result_codec.h"
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <cstring>
+#include <limits>
+
+namespace zvsmap {
+namespace {
+
+bool SameBits(double a, double b) { return std::memcmp(&a, &b, sizeof a) == 0; }
+
+PointResult Sample() {
+  PointResult r;
+  r.index = 123456;
+  r.status = PointStatus::kOk;
+  r.reason = "";
+  r.log = std::string("binary\0log\n", 11);
+  r.settle = {"periods", 0, 62, std::numeric_limits<double>::quiet_NaN(), {{"il0", -4.25}, {"vc0", 11.9}}};
+  r.wall_s = 0.1;
+  r.edges.push_back({"leg", "high_on", ZvsClass::kHard, "v_turn_on <= 10% of rail",
+                     {{"rail_v", 47.999999999999993}, {"z", -0.0}, {"inf", -HUGE_VAL}}});
+  r.edges.push_back({"leg", "low_on", ZvsClass::kFull, "", {}});
+  return r;
+}
+
+TEST(ResultCodecTest, EveryFieldRoundTripsBitForBit) {
+  PointResult in = Sample();
+  PointResult out;
+  ASSERT_TRUE(DecodeResult(EncodeResult(in), &out));
+  EXPECT_EQ(out.index, in.index);
+  EXPECT_EQ(out.status, in.status);
+  EXPECT_EQ(out.reason, in.reason);
+  EXPECT_EQ(out.log, in.log);
+  EXPECT_EQ(out.settle.method, in.settle.method);
+  EXPECT_EQ(out.settle.periods, 62);
+  EXPECT_TRUE(std::isnan(out.settle.residual));
+  EXPECT_TRUE(SameBits(out.wall_s, 0.1));
+  EXPECT_EQ(out.settle.initial_state, in.settle.initial_state);
+  EXPECT_EQ(out.edges[0].criterion, "v_turn_on <= 10% of rail");
+  ASSERT_EQ(out.edges.size(), 2u);
+  EXPECT_EQ(out.edges[0].zvs, ZvsClass::kHard);
+  ASSERT_EQ(out.edges[0].metrics.size(), 3u);
+  for (size_t k = 0; k < 3; ++k) {
+    EXPECT_EQ(out.edges[0].metrics[k].column, in.edges[0].metrics[k].column);
+    EXPECT_TRUE(SameBits(out.edges[0].metrics[k].value, in.edges[0].metrics[k].value));
+  }
+  EXPECT_EQ(out.edges[1].edge, "low_on");
+}
+
+TEST(ResultCodecTest, EveryTruncationIsRejected) {
+  std::string bytes = EncodeResult(Sample());
+  for (size_t n = 0; n < bytes.size(); ++n) {
+    PointResult out;
+    EXPECT_FALSE(DecodeResult(bytes.substr(0, n), &out)) << "length " << n;
+  }
+}
+
+TEST(ResultCodecTest, TrailingBytesAndBadEnumsAreRejected) {
+  std::string bytes = EncodeResult(Sample());
+  PointResult out;
+  EXPECT_FALSE(DecodeResult(bytes + "x", &out));
+  std::string bad_status = bytes;
+  bad_status[9] = 9;  // after format byte and 8-byte index
+  EXPECT_FALSE(DecodeResult(bad_status, &out));
+  std::string bad_format = bytes;
+  bad_format[0] = 99;
+  EXPECT_FALSE(DecodeResult(bad_format, &out));
+}
+
+}  // namespace
+}  // namespace zvsmap
