@@ -248,9 +248,28 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
         return false;
       }
       out->states.push_back({Lower(words[1]), Lower(words[2].substr(5)), {path, a.line, 0}});
+    } else if (kind == "model") {
+      // `*@ model NAME input=param ...`: which hand-calculation model applies
+      // (src/handcalc); the names are checked there, against its registry.
+      if (words.size() < 2 || !out->model.empty()) {
+        *error = At(path, a.line, words.size() < 2 ? "'*@ model' needs a name, e.g. '*@ model buck'"
+                                                   : "more than one '*@ model'");
+        return false;
+      }
+      out->model = Lower(words[1]);
+      out->model_where = {path, a.line, 0};
+      for (size_t k = 2; k < words.size(); ++k) {
+        size_t eq = words[k].find('=');
+        if (eq == std::string::npos || eq == 0 || eq + 1 == words[k].size()) {
+          *error = At(path, a.line, "expected 'input=param' in '*@ model', got '" + words[k] + "'");
+          return false;
+        }
+        out->model_bindings.emplace_back(Lower(words[k].substr(0, eq)),
+                                         Lower(words[k].substr(eq + 1)));
+      }
     } else {
       *error = At(path, a.line, "unknown annotation '*@ " + words[0] +
-                                    "' (known: period, cell, state)");
+                                    "' (known: period, cell, state, model)");
       return false;
     }
   }

@@ -53,6 +53,11 @@ struct Template {
   SourceLocation period_where;
   std::vector<CellSpec> cells;
   std::vector<StateSpec> states;
+  /// The hand-calculation model chosen by `*@ model NAME [input=param ...]`
+  /// (lower-case; "" = none) and its input bindings, in annotation order.
+  std::string model;
+  std::vector<std::pair<std::string, std::string>> model_bindings;
+  SourceLocation model_where;
 
   /// The names of all declared parameters, in file order.
   std::vector<std::string> ParamNames() const;

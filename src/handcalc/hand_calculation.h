@@ -1,0 +1,64 @@
+// The hand calculation of one point: the template's built-in model and the
+// sweep file's own <predict> formulas, and how they are set beside the
+// simulated edge metrics.
+#pragma once
+
+#include <string>
+#include <vector>
+
+#include "analysis/edge_metrics.h"
+#include "core/diagnostic.h"
+#include "core/expression.h"
+#include "handcalc/topology_model.h"
+#include "netlist/template.h"
+#include "sweep/point.h"
+#include "sweep/sweep_spec.h"
+
+namespace zvsmap {
+
+/// The predictions for one commutation cell, built-in first, then the sweep
+/// file's in file order.
+struct CellCalculation {
+  std::string cell;
+  std::vector<Prediction> predictions;
+  /// The prediction called `name`, or nullptr.
+  const Prediction* Find(const std::string& name) const;
+};
+
+/// Everything predicted for one point.
+struct HandCalculation {
+  std::string model;                   ///< the template's `*@ model`, or "" (sweep formulas only)
+  std::string assumptions;             ///< the model's assumptions, one line
+  std::vector<CellCalculation> cells;  ///< one per template cell, in template order
+};
+
+/// Computes the hand calculation of one point from its resolved template
+/// parameters (lower-case keys, see ResolveParams). Names in <predict>
+/// expressions match parameters and predictions case-insensitively, as SPICE
+/// names do. A value the model cannot give (NaN) makes every expression that
+/// uses it NaN, without an error. Fails on an unknown model, a missing model
+/// input, an unknown name in an expression (file:line, column, did-you-mean)
+/// or a non-finite result (division by zero); `out` then still holds every
+/// prediction that could be computed (the failed ones NaN).
+bool ComputeHandCalculation(const SweepSpec& spec, const Template& tmpl, const Variables& resolved,
+                            HandCalculation* out, Diagnostic* error);
+
+/// Appends, to each measured edge, the predictions paired with it. For a
+/// prediction paired with metric M, columns M__pred (the built-in model's; a
+/// <predict> uses its own name instead of "pred"), then M__pred__diff
+/// (simulated - predicted), M__pred__rel_diff (diff / |predicted|; NaN when
+/// the prediction is 0) and M__pred__beyond_tol (1/0; NaN when nothing was
+/// predicted). A <predict> without `compare` adds a column with its own name
+/// (on its edge's rows, or every row of its cell without `edge`). Returns
+/// false with the first problem of ComputeHandCalculation (the columns are
+/// still added, NaN where the calculation failed).
+bool AddPredictionMetrics(const SweepSpec& spec, const Template& tmpl, const Variables& resolved,
+                          std::vector<EdgeMeasurement>* edges, Diagnostic* error);
+
+/// Checks before any simulation that the template's model exists and gets its
+/// inputs, and that every <predict> expression can be evaluated at the first
+/// point (unknown names, division by zero there). Returns the problems found.
+std::vector<Diagnostic> CheckPredictions(const SweepSpec& spec, const Template& tmpl,
+                                         const std::vector<Point>& points);
+
+}  // namespace zvsmap

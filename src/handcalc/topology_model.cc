@@ -1,0 +1,58 @@
+#include "handcalc/topology_model.h"
+
+#include <algorithm>
+#include <cctype>
+
+#include "core/spice_number.h"
+#include "handcalc/buck_model.h"
+
+namespace zvsmap {
+
+bool Tolerance::Exceeded(double predicted, double simulated) const {
+  bool p = std::isnan(predicted), s = std::isnan(simulated);
+  if (p || s) return p != s;
+  double limit = std::max(relative * std::fabs(predicted), absolute);
+  return std::fabs(simulated - predicted) > limit;
+}
+
+std::string Tolerance::Describe() const {
+  std::string rel = relative > 0 ? FormatNumber(relative * 100) + "%" : "";
+  std::string abs = absolute > 0 ? FormatEngineering(absolute) : "";
+  if (!rel.empty() && !abs.empty()) return rel + " or " + abs;
+  if (rel.empty() && abs.empty()) return "0";
+  return rel + abs;
+}
+
+std::string ModelContext::ParamOf(const std::string& name) const {
+  auto it = bindings.find(name);
+  return it == bindings.end() ? name : it->second;
+}
+
+double ModelContext::Input(const std::string& name) const {
+  std::string param = ParamOf(name);
+  for (char& c : param) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  auto it = params->find(param);
+  return it == params->end() ? NAN : it->second;
+}
+
+namespace {
+
+// Every built-in model; a new topology adds its line here.
+std::vector<const TopologyModel*> Registry() { return {&BuckModel()}; }
+
+}  // namespace
+
+const TopologyModel* FindTopologyModel(const std::string& name) {
+  for (const TopologyModel* m : Registry()) {
+    if (EditDistance(m->Name(), name) == 0 && m->Name().size() == name.size()) return m;
+  }
+  return nullptr;
+}
+
+std::vector<std::string> TopologyModelNames() {
+  std::vector<std::string> names;
+  for (const TopologyModel* m : Registry()) names.push_back(m->Name());
+  return names;
+}
+
+}  // namespace zvsmap
