@@ -6,12 +6,23 @@ std::string HtmlEscape(const std::string& text) {
   std::string out;
   for (char c : text) {
     switch (c) {
-      case '&': out += "&amp;"; break;
-      case '<': out += "&lt;"; break;
-      case '>': out += "&gt;"; break;
-      case '"': out += "&quot;"; break;
-      case '\'': out += "&#39;"; break;
-      default: out += c;
+      case '&':
+        out += "&amp;";
+        break;
+      case '<':
+        out += "&lt;";
+        break;
+      case '>':
+        out += "&gt;";
+        break;
+      case '"':
+        out += "&quot;";
+        break;
+      case '\'':
+        out += "&#39;";
+        break;
+      default:
+        out += c;
     }
   }
   return out;
@@ -63,10 +74,12 @@ pre { margin: 0; white-space: pre-wrap; font-size: 0.85em; }
   h += "<tr><th>Sweep file</th><td>" + HtmlEscape(input.spec.path) + "</td></tr>\n";
   h += "<tr><th>Template</th><td>" + HtmlEscape(input.spec.template_path) + "</td></tr>\n";
   h += "<tr><th>Points</th><td>" + std::to_string(input.points.size()) + " (" +
-       std::to_string(ran) + " ran, " + std::to_string(not_run) + " failed or unsettled)</td></tr>\n";
+       std::to_string(ran) + " ran, " + std::to_string(not_run) +
+       " failed or unsettled)</td></tr>\n";
   h += "<tr><th>ZVS criterion</th><td>" + HtmlEscape(input.spec.zvs.Describe()) + "</td></tr>\n";
   h += "<tr><th>zvsmap version</th><td>" ZVSMAP_VERSION "</td></tr>\n</table>\n";
-  h += "<p class=\"verdict " + verdict_class + "\" id=\"verdict\">" + HtmlEscape(verdict) + "</p>\n";
+  h +=
+      "<p class=\"verdict " + verdict_class + "\" id=\"verdict\">" + HtmlEscape(verdict) + "</p>\n";
 
   h += "<h2>Requirements</h2>\n";
   if (verdicts.empty()) {
@@ -76,9 +89,8 @@ pre { margin: 0; white-space: pre-wrap; font-size: 0.85em; }
          "<th>Details</th></tr>\n";
     for (const RequirementVerdict& v : verdicts) {
       h += "<tr><td>" + HtmlEscape(v.title) + "</td><td class=\"" +
-           (v.held ? "held\">held" : "broken\">failed") + "</td><td>" +
-           std::to_string(v.checked) + " of " + std::to_string(v.covered) + "</td><td>" +
-           HtmlEscape(v.message);
+           (v.held ? "held\">held" : "broken\">failed") + "</td><td>" + std::to_string(v.checked) +
+           " of " + std::to_string(v.covered) + "</td><td>" + HtmlEscape(v.message);
       if (!v.details.empty()) {
         h += "<pre>";
         for (const std::string& d : v.details) h += HtmlEscape(d) + "\n";
@@ -104,7 +116,7 @@ pre { margin: 0; white-space: pre-wrap; font-size: 0.85em; }
 
   h += R"(<h2>Cautions</h2>
 <div class="caution">
-<p>Power converters work at hazardous voltages and store dangerous energy in capacitors and
+<p><strong>High voltage and stored energy.</strong> Power converters work at hazardous voltages and store dangerous energy in capacitors and
 inductors, which can stay charged after the supply is removed. Only qualified people should build,
 test or service them.</p>
 <p>These results come from simulated models with idealised parts and layouts. They support, and

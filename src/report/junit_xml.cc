@@ -71,9 +71,8 @@ void BuildJunitXml(const ReportInput& input, const std::vector<RequirementVerdic
   }
   pugi::xml_node pts = AddSuite(root, "points");
   if (order.empty()) {
-    AddCase(pts, "zvsmap.points", "every point ran")
-        .append_child("system-out")
-        .text() = (std::to_string(input.points.size()) + " points ran and settled").c_str();
+    AddCase(pts, "zvsmap.points", "every point ran").append_child("system-out").text() =
+        (std::to_string(input.points.size()) + " points ran and settled").c_str();
   }
   for (const auto& key : order) {
     const std::vector<size_t>& members = groups[key];
@@ -84,8 +83,8 @@ void BuildJunitXml(const ReportInput& input, const std::vector<RequirementVerdic
     failure.append_attribute("type") = key.first.c_str();
     std::string text;
     for (size_t i : members) {
-      text += "point " + std::to_string(input.points[i].index) + " (" +
-              input.points[i].Describe() + ")\n";
+      text += "point " + std::to_string(input.points[i].index) + " (" + input.points[i].Describe() +
+              ")\n";
     }
     failure.text() = text.c_str();
   }

@@ -24,10 +24,14 @@ const char* kBoundary = "#000000";
 
 const char* ClassColour(ZvsClass c) {
   switch (c) {
-    case ZvsClass::kFull: return kFull;
-    case ZvsClass::kPartial: return kPartial;
-    case ZvsClass::kHard: return kHard;
-    case ZvsClass::kUnknown: return kUnknown;
+    case ZvsClass::kFull:
+      return kFull;
+    case ZvsClass::kPartial:
+      return kPartial;
+    case ZvsClass::kHard:
+      return kHard;
+    case ZvsClass::kUnknown:
+      return kUnknown;
   }
   return kUnknown;
 }
@@ -53,7 +57,8 @@ std::string SliceText(const Grid& grid, const std::vector<int>& fixed,
   for (size_t d = 0; d < grid.dims.size(); ++d) {
     if (std::find(free_dims.begin(), free_dims.end(), d) != free_dims.end()) continue;
     if (grid.dims[d].values.size() < 2 || fixed[d] < 0) continue;
-    out += (out.empty() ? "" : ", ") + grid.dims[d].param + "=" + Eng(grid.dims[d].values[fixed[d]]);
+    out +=
+        (out.empty() ? "" : ", ") + grid.dims[d].param + "=" + Eng(grid.dims[d].values[fixed[d]]);
   }
   return out;
 }
@@ -119,8 +124,9 @@ Plot ZvsMapPlot(const ReportInput& input, const Grid& grid, const EdgeKey& key, 
       const EdgeMeasurement* e = r.status == PointStatus::kOk ? FindEdge(r, key) : nullptr;
       std::string tip = "point " + std::to_string(p.index) + " (" + p.Describe() + "): ";
       if (!e) {
-        tip += r.status == PointStatus::kOk ? "edge not measured"
-                                            : std::string(PointStatusName(r.status)) + ", " + r.reason;
+        tip += r.status == PointStatus::kOk
+                   ? "edge not measured"
+                   : std::string(PointStatusName(r.status)) + ", " + r.reason;
         svg.Rect(x, y, cw, ch, kNotRun, tip);
         continue;
       }
@@ -167,8 +173,9 @@ Plot ZvsMapPlot(const ReportInput& input, const Grid& grid, const EdgeKey& key, 
   }
   svg.Text(kLeft + plot_w / 2, kHeight - 20, DimLabel(xd), "middle", 13);
   svg.Text(28, kTop + plot_h / 2, DimLabel(yd), "middle", 13, -90);
-  svg.Text(kLeft + plot_w / 2, kHeight - 4, "cell text: margin, " + margin.description +
-                                                (margin.unit.empty() ? "" : " [" + margin.unit + "]"),
+  svg.Text(kLeft + plot_w / 2, kHeight - 4,
+           "cell text: margin, " + margin.description +
+               (margin.unit.empty() ? "" : " [" + margin.unit + "]"),
            "middle", 10);
   Legend(&svg, kWidth - kRight + 16, kTop + 14);
 
@@ -209,14 +216,13 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
     double pred = pred_column.empty() ? std::nan("") : e->Get(pred_column);
     const Point& p = input.points[found->second];
     samples.push_back({xd.values[i], y, pred, e->zvs,
-                       "point " + std::to_string(p.index) + " (" + p.Describe() + "): " +
-                           ZvsClassName(e->zvs) + ", " + column + "=" + Eng(y)});
+                       "point " + std::to_string(p.index) + " (" + p.Describe() +
+                           "): " + ZvsClassName(e->zvs) + ", " + column + "=" + Eng(y)});
   }
 
-  std::string y_label =
-      is_margin ? "ZVS margin: " + margin.description +
-                      (margin.unit.empty() ? "" : " [" + margin.unit + "]")
-                : column;
+  std::string y_label = is_margin ? "ZVS margin: " + margin.description +
+                                        (margin.unit.empty() ? "" : " [" + margin.unit + "]")
+                                  : column;
   std::string slice = SliceText(grid, fixed, {dim});
   std::string title = key.Label() + ": " + (is_margin ? "zvs_margin" : column) + " versus " +
                       xd.param + (slice.empty() ? "" : " (" + slice + ")");
@@ -266,8 +272,8 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
     svg.Line(px(xd.values[i]), kTop + plot_h, px(xd.values[i]), kTop + plot_h + 5, "#000000", 1);
     svg.Text(px(xd.values[i]), kTop + plot_h + 18, Eng(xd.values[i]), "middle", 11);
   }
-  svg.Text(kLeft + plot_w / 2, kHeight - 16, DimLabel(xd) + (log_x ? " (log scale)" : ""),
-           "middle", 13);
+  svg.Text(kLeft + plot_w / 2, kHeight - 16, DimLabel(xd) + (log_x ? " (log scale)" : ""), "middle",
+           13);
   svg.Text(24, kTop + plot_h / 2, y_label, "middle", 12, -90);
 
   std::vector<std::pair<double, double>> line, pred_line;

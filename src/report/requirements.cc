@@ -60,26 +60,29 @@ std::string Check(const RequirementSpec& r, const EdgeMeasurement& e, const Marg
   std::string label = e.cell + "." + e.edge;
   switch (r.kind) {
     case RequirementSpec::Kind::kClass: {
-      bool ok = e.zvs == ZvsClass::kFull ||
-                (r.min_class == "partial" && e.zvs == ZvsClass::kPartial);
+      bool ok =
+          e.zvs == ZvsClass::kFull || (r.min_class == "partial" && e.zvs == ZvsClass::kPartial);
       if (ok) return "";
-      return label + " class " + ZvsClassName(e.zvs) + " (v_turn_on_v=" +
-             Num(e.Get("v_turn_on_v")) + ", limit " + Num(e.Get("v_residual_limit_v")) + ")";
+      return label + " class " + ZvsClassName(e.zvs) +
+             " (v_turn_on_v=" + Num(e.Get("v_turn_on_v")) + ", limit " +
+             Num(e.Get("v_residual_limit_v")) + ")";
     }
     case RequirementSpec::Kind::kMetric: {
       bool is_margin = r.metric == "zvs_margin";
       double v = is_margin ? MarginOf(e, margin) : e.Get(r.metric);
       std::string name = is_margin ? "zvs_margin (" + margin.description + ")" : r.metric;
-      bool ok = !std::isnan(v) && (std::isnan(r.min) || v >= r.min) &&
-                (std::isnan(r.max) || v <= r.max);
+      bool ok =
+          !std::isnan(v) && (std::isnan(r.min) || v >= r.min) && (std::isnan(r.max) || v <= r.max);
       if (ok) return "";
       return label + " " + name + "=" + Num(v);
     }
     case RequirementSpec::Kind::kDeadTimeWindow: {
       double dead = e.Get("t_dead_s");
       double start = e.Get(window.start), end = e.Get(window.end);
-      bool ok = !std::isnan(dead) && !std::isnan(start) && !std::isnan(end) && dead >= start &&
-                dead <= end;
+      // A window start of NaN: ZVS not reached within the dead time (too
+      // short). An end of NaN: no ring-back seen, so no upper limit applies.
+      bool ok = !std::isnan(dead) && !std::isnan(start) && dead >= start &&
+                (std::isnan(end) || dead <= end);
       if (ok) return "";
       return label + " t_dead_s=" + Num(dead) + " outside [" + window.start + "=" + Num(start) +
              ", " + window.end + "=" + Num(end) + "]";
@@ -102,11 +105,11 @@ std::vector<RequirementVerdict> EvaluateRequirements(const ReportInput& input) {
     v.title = r.name.empty() ? Place(r.where) + ": " + r.Describe() : r.name;
     std::string error;
     if (r.kind == RequirementSpec::Kind::kDeadTimeWindow && !window.found()) {
-      error = "the results have no dead-time window columns (looked for t_dead_min*/t_zvs* and "
-              "t_dead_max*/t_ring_back*/t_ringback*), so the window cannot be checked";
+      error =
+          "the results have no dead-time window columns (looked for t_dead_min*/t_clamp*/"
+          "t_zvs* and t_dead_max*/t_ringback*/t_ring_back*), so the window cannot be checked";
     }
-    for (size_t i = 0; error.empty() && i < input.points.size() && i < input.results.size();
-         ++i) {
+    for (size_t i = 0; error.empty() && i < input.points.size() && i < input.results.size(); ++i) {
       const Point& point = input.points[i];
       const PointResult& result = input.results[i];
       int covers = Covers(r, point, &error);
@@ -126,8 +129,9 @@ std::vector<RequirementVerdict> EvaluateRequirements(const ReportInput& input) {
         std::string problem = Check(r, e, margin, window);
         if (!problem.empty()) problems.push_back(problem);
       }
-      if (!any_edge) problems.push_back("edge " + (r.cell.empty() ? r.edge : r.cell + "." + r.edge) +
-                                        " not measured");
+      if (!any_edge)
+        problems.push_back("edge " + (r.cell.empty() ? r.edge : r.cell + "." + r.edge) +
+                           " not measured");
       if (problems.empty()) continue;
       ++v.failing;
       if (v.details.size() < kMaxDetails) {

@@ -12,13 +12,13 @@ namespace zvsmap {
 /// The outcome of one requirement over the points it covers.
 struct RequirementVerdict {
   RequirementSpec spec;
-  std::string title;     ///< the file's name="" or "file:line: <Describe()>"
+  std::string title;  ///< the file's name="" or "file:line: <Describe()>"
   bool held = false;
-  int covered = 0;       ///< points where the where-expression holds
-  int checked = 0;       ///< of those, points that ran and were checked
-  int failing = 0;       ///< checked points where the requirement does not hold
-  int unchecked = 0;     ///< covered points that failed or did not settle
-  std::string message;   ///< one line: why it failed, or what it checked
+  int covered = 0;                   ///< points where the where-expression holds
+  int checked = 0;                   ///< of those, points that ran and were checked
+  int failing = 0;                   ///< checked points where the requirement does not hold
+  int unchecked = 0;                 ///< covered points that failed or did not settle
+  std::string message;               ///< one line: why it failed, or what it checked
   std::vector<std::string> details;  ///< one line per failing point (point, values)
 };
 

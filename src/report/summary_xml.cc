@@ -1,7 +1,7 @@
 #include "report/summary_xml.h"
 
-#include <cmath>
 #include <algorithm>
+#include <cmath>
 #include <cstdio>
 #include <limits>
 
@@ -67,10 +67,18 @@ void AddEdge(pugi::xml_node root, const ReportInput& input, const Grid& grid, co
       continue;
     }
     switch (e->zvs) {
-      case ZvsClass::kFull: ++full; break;
-      case ZvsClass::kPartial: ++partial; break;
-      case ZvsClass::kHard: ++hard; break;
-      case ZvsClass::kUnknown: ++unknown; break;
+      case ZvsClass::kFull:
+        ++full;
+        break;
+      case ZvsClass::kPartial:
+        ++partial;
+        break;
+      case ZvsClass::kHard:
+        ++hard;
+        break;
+      case ZvsClass::kUnknown:
+        ++unknown;
+        break;
     }
     double m = MarginOf(*e, margin);
     if (!std::isnan(m) && m < worst) {

@@ -77,8 +77,8 @@ void SvgCanvas::Circle(double cx, double cy, double r, const std::string& fill,
   if (!tooltip.empty()) c.append_child("title").text() = tooltip.c_str();
 }
 
-void SvgCanvas::Text(double x, double y, const std::string& text, const char* anchor,
-                     double size, double rotate) {
+void SvgCanvas::Text(double x, double y, const std::string& text, const char* anchor, double size,
+                     double rotate) {
   pugi::xml_node t = Add("text");
   t.append_attribute("x") = Px(x).c_str();
   t.append_attribute("y") = Px(y).c_str();

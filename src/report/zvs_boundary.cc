@@ -1,8 +1,8 @@
 #include "report/zvs_boundary.h"
 
+#include <algorithm>
 #include <cmath>
 #include <limits>
-#include <algorithm>
 #include <map>
 
 namespace zvsmap {
@@ -70,6 +70,8 @@ std::string FindColumnWithPrefix(const std::vector<PointResult>& results,
   for (const PointResult& r : results) {
     for (const EdgeMeasurement& e : r.edges) {
       for (const Metric& m : e.metrics) {
+        // "M__pred" and its companions are hand-calculation columns, not measurements.
+        if (m.column.find("__") != std::string::npos) continue;
         if (m.column.compare(0, prefix.size(), prefix) == 0) return m.column;
       }
     }
@@ -79,9 +81,10 @@ std::string FindColumnWithPrefix(const std::vector<PointResult>& results,
 
 WindowColumns FindWindowColumns(const std::vector<PointResult>& results) {
   WindowColumns w;
-  w.start = FindColumnWithPrefix(results, "t_dead_min");
-  if (w.start.empty()) w.start = FindColumnWithPrefix(results, "t_zvs");
-  for (const char* prefix : {"t_dead_max", "t_ring_back", "t_ringback"}) {
+  for (const char* prefix : {"t_dead_min", "t_clamp", "t_zvs"}) {
+    if (w.start.empty()) w.start = FindColumnWithPrefix(results, prefix);
+  }
+  for (const char* prefix : {"t_dead_max", "t_ringback", "t_ring_back"}) {
     if (w.end.empty()) w.end = FindColumnWithPrefix(results, prefix);
   }
   return w;
@@ -89,7 +92,8 @@ WindowColumns FindWindowColumns(const std::vector<PointResult>& results) {
 
 MarginSource ChooseMargin(const std::vector<PointResult>& results) {
   MarginSource source;
-  source.column = FindColumnWithPrefix(results, "zvs_margin");
+  source.column = FindColumnWithPrefix(results, "zvs_energy_margin");
+  if (source.column.empty()) source.column = FindColumnWithPrefix(results, "zvs_margin");
   if (source.column.empty()) {
     source.description = "v_residual_limit_v - v_turn_on_v";
     source.unit = "V";

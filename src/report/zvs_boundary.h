@@ -27,10 +27,10 @@ struct EdgeKey {
   bool operator==(const EdgeKey& o) const { return cell == o.cell && edge == o.edge; }
 };
 
-/// The margin the summary, the plots and `metric="zvs_margin"` use: a metric
-/// column whose name starts with "zvs_margin" when the results have one (the
-/// energy margin), else v_residual_limit_v - v_turn_on_v (volts). Positive
-/// means the edge turns on within the ZVS criterion.
+/// The margin the summary, the plots and `metric="zvs_margin"` use: the energy
+/// margin column (name starting "zvs_energy_margin", else "zvs_margin") when
+/// the results have one, else v_residual_limit_v - v_turn_on_v (volts).
+/// Positive means ZVS (enough energy, or a turn-on within the criterion).
 struct MarginSource {
   std::string column;       ///< the column used, or "" for the voltage difference
   std::string description;  ///< e.g. "v_residual_limit_v - v_turn_on_v"
@@ -55,14 +55,16 @@ std::vector<EdgeKey> MeasuredEdges(const std::vector<PointResult>& results);
 /// The measurement of `key` in `result`, or nullptr.
 const EdgeMeasurement* FindEdge(const PointResult& result, const EdgeKey& key);
 
-/// The first metric column in `results` whose name starts with `prefix`, or "".
+/// The first measured metric column in `results` whose name starts with
+/// `prefix` (names holding "__" are hand-calculation columns and skipped), or "".
 std::string FindColumnWithPrefix(const std::vector<PointResult>& results,
                                  const std::string& prefix);
 
 /// The metric columns that hold the measured dead-time window of an edge:
-/// its start (the shortest dead time that reaches ZVS; a column starting with
-/// "t_dead_min", else "t_zvs") and its end (the longest before ring-back; a
-/// column starting with "t_dead_max", else "t_ring_back", else "t_ringback").
+/// its start (the shortest dead time that reaches ZVS; the first column
+/// starting "t_dead_min", "t_clamp" or "t_zvs", in that preference) and its
+/// end (the longest before ring-back; "t_dead_max", "t_ringback" or
+/// "t_ring_back"). Columns with "__" (hand calculation) are never taken.
 /// Either is "" when the results have no such column.
 struct WindowColumns {
   std::string start;
@@ -84,14 +86,14 @@ double MarginOf(const EdgeMeasurement& m, const MarginSource& source);
 /// dimension itself).
 struct Boundary {
   size_t dim = 0;
-  double value = 0;         ///< the located boundary
-  double lower = 0;         ///< the neighbouring axis values it lies between
+  double value = 0;  ///< the located boundary
+  double lower = 0;  ///< the neighbouring axis values it lies between
   double upper = 0;
   bool interpolated = false;  ///< true: zero of the margin, interpolated linearly;
                               ///< false: the margins do not change sign, midpoint taken
-  bool zvs_above = false;   ///< full ZVS on the `upper` side
-  std::vector<int> at;      ///< positions of every dimension, -1 for `dim`
-  double position = 0;      ///< `value` in index units along `dim` (for plotting)
+  bool zvs_above = false;     ///< full ZVS on the `upper` side
+  std::vector<int> at;        ///< positions of every dimension, -1 for `dim`
+  double position = 0;        ///< `value` in index units along `dim` (for plotting)
 };
 
 /// Every class change of `key` (full versus not full) between neighbouring

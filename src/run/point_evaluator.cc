@@ -7,6 +7,7 @@
 #include "analysis/commutation.h"
 #include "analysis/edge_finder.h"
 #include "core/spice_number.h"
+#include "handcalc/hand_calculation.h"
 #include "sim/steady_state.h"
 
 namespace zvsmap {
@@ -184,6 +185,13 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
       }
       result.edges.push_back(MeasureEdge(cell, out.waves, *it, spec_.zvs, edge_params));
     }
+  }
+  // Hand calculation beside the measured edges (src/handcalc). A formula that
+  // fails leaves its columns empty and says why; the point itself stays ok.
+  Diagnostic hand;
+  if (!AddPredictionMetrics(spec_, tmpl_, resolved, &result.edges, &hand)) {
+    hand.source_line.clear();
+    result.reason = "hand calculation: " + hand.Format();
   }
   result.status = PointStatus::kOk;
   if (settled) *settled = std::move(out.waves);

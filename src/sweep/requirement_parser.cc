@@ -69,8 +69,8 @@ std::string RequirementSpec::Describe() const {
   return out;
 }
 
-bool ParseRequirement(pugi::xml_node node, const SourceLocation& where,
-                      const RequirementFail& fail, RequirementSpec* out) {
+bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const RequirementFail& fail,
+                      RequirementSpec* out) {
   static const std::vector<std::string> kAllowed = {
       "edge", "class", "metric", "min", "max", "dead-time-within-window", "where", "name"};
   for (pugi::xml_attribute a : node.attributes()) {
@@ -86,8 +86,9 @@ bool ParseRequirement(pugi::xml_node node, const SourceLocation& where,
   r.name = Trim(node.attribute("name").value());
 
   std::string edge = Trim(node.attribute("edge").value());
-  if (edge.empty()) return fail(node.attribute("edge") ? "edge" : nullptr,
-                                "<require> needs 'edge' (\"cell.edge\" or \"edge\")");
+  if (edge.empty())
+    return fail(node.attribute("edge") ? "edge" : nullptr,
+                "<require> needs 'edge' (\"cell.edge\" or \"edge\")");
   size_t dot = edge.find('.');
   if (dot != std::string::npos) {
     r.cell = edge.substr(0, dot);
@@ -167,8 +168,7 @@ bool CheckRequirementNames(const SweepSpec& spec, Diagnostic* error) {
       if (found) continue;
       std::string best = ClosestName(name, known);
       error->where = r.where;
-      error->message = "where-expression names '" + name +
-                       "', which the sweep does not set" +
+      error->message = "where-expression names '" + name + "', which the sweep does not set" +
                        (best.empty() ? std::string() : " (did you mean '" + best + "'?)");
       error->source_line.clear();
       return false;

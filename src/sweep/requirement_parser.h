@@ -18,8 +18,8 @@ using RequirementFail = std::function<bool(const char* attribute, const std::str
 /// Parses one <require> element (attributes: edge, class | metric+min/max |
 /// dead-time-within-window="true", optional where and name). `where` is the
 /// element's location. On a problem calls `fail` and returns its result.
-bool ParseRequirement(pugi::xml_node node, const SourceLocation& where,
-                      const RequirementFail& fail, RequirementSpec* out);
+bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const RequirementFail& fail,
+                      RequirementSpec* out);
 
 /// Checks, once the whole file is read, that every where-expression uses only
 /// parameters the sweep sets (fixed, swept or derived); the message names the

@@ -23,16 +23,16 @@ namespace zvsmap {
 struct RequirementSpec {
   enum class Kind { kClass, kMetric, kDeadTimeWindow };
   Kind kind = Kind::kClass;
-  std::string name;          ///< optional label from the file; else "" (see Describe)
-  std::string cell;          ///< "" = every cell
-  std::string edge;          ///< e.g. "high_on"
-  std::string min_class;     ///< kClass: "full" or "partial"
-  std::string metric;        ///< kMetric: column name or "zvs_margin"
+  std::string name;       ///< optional label from the file; else "" (see Describe)
+  std::string cell;       ///< "" = every cell
+  std::string edge;       ///< e.g. "high_on"
+  std::string min_class;  ///< kClass: "full" or "partial"
+  std::string metric;     ///< kMetric: column name or "zvs_margin"
   double min = std::numeric_limits<double>::quiet_NaN();  ///< kMetric lower bound, NaN = none
   double max = std::numeric_limits<double>::quiet_NaN();  ///< kMetric upper bound, NaN = none
-  std::string where_expression;         ///< "" = the whole grid
-  std::vector<std::string> where_names; ///< the names the expression uses
-  SourceLocation where;                 ///< the <require> element
+  std::string where_expression;                           ///< "" = the whole grid
+  std::vector<std::string> where_names;                   ///< the names the expression uses
+  SourceLocation where;                                   ///< the <require> element
 
   /// One line saying what is required, e.g.
   /// "leg.high_on class full where Iout >= 2".

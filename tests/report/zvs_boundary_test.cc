@@ -1,0 +1,94 @@
+#include "report/zvs_boundary.h"
+
+#include <gtest/gtest.h>
+
+#include "report_fixture.h"
+
+namespace zvsmap {
+namespace {
+
+using testing_report::MakeGrid;
+
+// The expected boundaries follow from the synthetic margins by the definition
+// of linear interpolation (a margin linear in x has its zero exactly where
+// the straight line through two neighbours crosses zero). // common practice, no source
+TEST(ZvsBoundaryTest, OneDimensionLinearMarginGivesExactZero) {
+  auto s = MakeGrid({{"x", {0, 1, 2, 3, 4, 5}}}, [](const auto& v) { return v[0] - 2.5; });
+  Grid grid = BuildGrid(s.spec, s.points);
+  MarginSource margin = ChooseMargin(s.results);
+  EXPECT_EQ(margin.column, "");
+  EXPECT_EQ(margin.description, "v_residual_limit_v - v_turn_on_v");
+  auto b = FindBoundaries(grid, s.results, {"leg", "high_on"}, margin);
+  ASSERT_EQ(b.size(), 1u);
+  EXPECT_DOUBLE_EQ(b[0].value, 2.5);
+  EXPECT_DOUBLE_EQ(b[0].lower, 2);
+  EXPECT_DOUBLE_EQ(b[0].upper, 3);
+  EXPECT_TRUE(b[0].interpolated);
+  EXPECT_TRUE(b[0].zvs_above);
+  // The low-side edge keeps +4 V everywhere: no boundary.
+  EXPECT_TRUE(FindBoundaries(grid, s.results, {"leg", "low_on"}, margin).empty());
+}
+
+TEST(ZvsBoundaryTest, FallingMarginHasZvsBelow) {
+  // margin = 1 - x/4: zero at x = 4 exactly (between 3 and 5 on this grid).
+  auto s = MakeGrid({{"x", {1, 3, 5, 7}}}, [](const auto& v) { return 1 - v[0] / 4; });
+  auto b = FindBoundaries(BuildGrid(s.spec, s.points), s.results, {"leg", "high_on"},
+                          ChooseMargin(s.results));
+  ASSERT_EQ(b.size(), 1u);
+  EXPECT_DOUBLE_EQ(b[0].value, 4);
+  EXPECT_FALSE(b[0].zvs_above);
+}
+
+TEST(ZvsBoundaryTest, TwoDimensionsOneBoundaryPerRow) {
+  // margin = x - 2.5 - y/2: along x, for each y, the zero is at 2.5 + y/2.
+  auto s = MakeGrid({{"y", {0, 1, 2}}, {"x", {0, 1, 2, 3, 4, 5}}},
+                    [](const auto& v) { return v[1] - 2.5 - v[0] / 2; });
+  Grid grid = BuildGrid(s.spec, s.points);
+  ASSERT_EQ(grid.SweptDims().size(), 2u);
+  std::vector<double> along_x;
+  for (const Boundary& b :
+       FindBoundaries(grid, s.results, {"leg", "high_on"}, ChooseMargin(s.results))) {
+    if (b.dim == 1) {
+      EXPECT_DOUBLE_EQ(b.value, 2.5 + grid.dims[0].values[b.at[0]] / 2);
+      along_x.push_back(b.value);
+    }
+  }
+  EXPECT_EQ(along_x, (std::vector<double>{2.5, 3, 3.5}));
+}
+
+TEST(ZvsBoundaryTest, MarginColumnIsPreferredAndFailedPointsSkipped) {
+  // A margin column that disagrees in scale with the voltage margin: its zero
+  // (x = 1.25, from 2x - 2.5) is used only where the class changes.
+  auto s = MakeGrid(
+      {{"x", {0, 1, 2, 3}}}, [](const auto& v) { return v[0] - 1.5; },
+      [](const auto& v) {
+        return std::vector<Metric>{{"zvs_margin", 2 * v[0] - 2.5}};
+      });
+  MarginSource margin = ChooseMargin(s.results);
+  EXPECT_EQ(margin.column, "zvs_margin");
+  auto b = FindBoundaries(BuildGrid(s.spec, s.points), s.results, {"leg", "high_on"}, margin);
+  ASSERT_EQ(b.size(), 1u);
+  EXPECT_DOUBLE_EQ(b[0].value, 1.25);
+
+  s.results[2].status = PointStatus::kFailed;
+  s.results[2].edges.clear();
+  EXPECT_TRUE(
+      FindBoundaries(BuildGrid(s.spec, s.points), s.results, {"leg", "high_on"}, margin).empty());
+}
+
+TEST(ZvsBoundaryTest, MidpointWhenMarginsDoNotBracketZero) {
+  // Class changes but the margin column stays positive: midpoint, flagged.
+  auto s = MakeGrid(
+      {{"x", {0, 1}}}, [](const auto& v) { return v[0] - 0.5; },
+      [](const auto& v) {
+        return std::vector<Metric>{{"zvs_margin", 1 + v[0]}};
+      });
+  auto b = FindBoundaries(BuildGrid(s.spec, s.points), s.results, {"leg", "high_on"},
+                          ChooseMargin(s.results));
+  ASSERT_EQ(b.size(), 1u);
+  EXPECT_DOUBLE_EQ(b[0].value, 0.5);
+  EXPECT_FALSE(b[0].interpolated);
+}
+
+}  // namespace
+}  // namespace zvsmap
