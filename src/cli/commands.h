@@ -14,6 +14,8 @@ void AddRunCommand(CLI::App& app, int* exit_code);
 void AddRenderCommand(CLI::App& app, int* exit_code);
 /// Adds `zvsmap points` (list the expanded points).
 void AddPointsCommand(CLI::App& app, int* exit_code);
+/// Adds `zvsmap explain` (one point's hand calculation beside its simulation).
+void AddExplainCommand(CLI::App& app, int* exit_code);
 
 /// Prints diagnostics as "zvsmap: error: ..." on stderr.
 void PrintErrors(const std::vector<zvsmap::Diagnostic>& errors);

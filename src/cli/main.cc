@@ -19,6 +19,7 @@ int main(int argc, char** argv) {
   zvsmap::cli::AddRunCommand(app, &exit_code);
   zvsmap::cli::AddRenderCommand(app, &exit_code);
   zvsmap::cli::AddPointsCommand(app, &exit_code);
+  zvsmap::cli::AddExplainCommand(app, &exit_code);
   try {
     app.parse(argc, argv);
   } catch (const CLI::ParseError& e) {
