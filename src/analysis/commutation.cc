@@ -164,8 +164,14 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
   if (std::isfinite(t_zvs)) {
     auto above = Crossings(t, vds_in, band, true, t_zvs, t_ch);
     if (!above.empty()) {
+      // The reversal: the commutated current changes direction while the
+      // node sits at the rail (it then leaves the clamp).
+      const auto& i_cell = waves.Get("i(" + cell.current + ")");
+      auto reversals = Crossings(t, i_cell, 0.0, up, t_zvs, above.front());
       auto zeros = Crossings(t, vds_in, 0.0, true, t_zvs, above.front());
-      t_ringback = zeros.empty() ? above.front() : zeros.back();
+      t_ringback = !reversals.empty() ? reversals.front()
+                   : zeros.empty()    ? above.front()
+                                      : zeros.back();
       ringback = 1;
     }
   } else if (!dead.v.empty() && std::isfinite(v_min) && v_min < dead.v.front() - band &&

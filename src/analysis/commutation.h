@@ -68,9 +68,12 @@ EdgeParams EdgeParamsFor(const CellSpec& cell, const Variables& resolved);
 //                        rises above the clamp band again, or, not reaching it,
 //                        it first falls by more than the band below its value
 //                        at t_off and then rises by more than the band
-//   t_ringback_s         t_off -> the reversal: the last rising crossing of
-//                        v_ds = 0 after t_zvs (the current through the clamp
-//                        reverses), or the instant of v_ds_min_v
+//   t_ringback_s         t_off -> the reversal. After reaching the rail: the
+//                        commutated current's zero crossing after t_zvs (it
+//                        reverses while the node is clamped: the longest dead
+//                        time before ring-back); if it has none, the last
+//                        rising crossing of v_ds = 0. Not reaching the rail:
+//                        the instant of v_ds_min_v
 //   v_ringback_v         highest incoming v_ds after the reversal, before t_ch
 //   e_on_j               integral of v_ds * i_channel of the incoming switch
 //                        from the start of its command edge (command rising

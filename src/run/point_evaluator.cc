@@ -157,15 +157,13 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
 
   // The measured run: measure_periods (>= 2) from the settled state.
   int measured = std::max(2, sim.measure_periods);
-  std::string netlist, why;
-  if (!render(ss.state, measured, &netlist, &why)) {
-    result.reason = why;
-    return finish();
-  }
-  SimulationOutput out = simulator.Run(netlist, vectors, measured * period);
+  std::string why;
+  std::vector<double> x = ss.state;
+  SimulationOutput out =
+      RunFromState(simulator, render, vectors, states, period, measured, -1, &x, &why);
   result.settle.periods += measured;
   if (!out.ok) {
-    result.reason = out.error;
+    result.reason = why.empty() ? out.error : why;
     result.log = out.log;
     return finish();
   }

@@ -27,25 +27,20 @@ class Shooter {
       : sim_(sim), render_(render), vectors_(vectors), states_(states), period_(period),
         opt_(opt), r_(result) {}
 
-  // Simulates `periods` from x. False (result filled) when a run fails or
-  // the period budget is spent.
-  bool Run(const std::vector<double>& x, int periods, PeriodRun* out) {
+  // Simulates `periods` from *x (possibly nudged, see RunFromState). False
+  // (result filled) when a run fails or the period budget is spent.
+  bool Run(std::vector<double>* x, int periods, PeriodRun* out, int nudge = -1) {
     if (r_->periods + periods > opt_.max_periods) {
       budget_spent_ = true;
       return false;
     }
-    std::string netlist, error;
-    if (!render_(x, periods, &netlist, &error)) {
-      r_->ok = false;
-      r_->error = error;
-      return false;
-    }
-    double tstop = periods * period_;
-    SimulationOutput o = sim_.Run(netlist, vectors_, tstop);
+    std::string error;
+    SimulationOutput o =
+        RunFromState(sim_, render_, vectors_, states_, period_, periods, nudge, x, &error);
     r_->periods += periods;
     if (!o.ok) {
       r_->ok = false;
-      r_->error = o.error;
+      r_->error = error.empty() ? o.error : error;
       r_->log = o.log;
       return false;
     }
@@ -118,6 +113,28 @@ bool Solve(std::vector<std::vector<double>> a, std::vector<double> b, std::vecto
 
 }  // namespace
 
+SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render,
+                              const std::vector<std::string>& vectors,
+                              const std::vector<SlowState>& states, double period_s, int periods,
+                              int nudge, std::vector<double>* x, std::string* render_error) {
+  const std::vector<double> base = *x;
+  SimulationOutput o;
+  for (double factor : {0.0, 0.37, -0.61}) {
+    for (size_t i = 0; i < base.size(); ++i) {
+      bool moved = nudge < 0 || static_cast<size_t>(nudge) == i;
+      (*x)[i] = base[i] + (moved ? factor * states[i].floor : 0.0);
+    }
+    std::string netlist;
+    if (!render(*x, periods, &netlist, render_error)) {
+      o.ok = false;
+      return o;
+    }
+    o = simulator.Run(netlist, vectors, periods * period_s);
+    if (o.ok || o.poisoned || o.error.find("imestep too small") == std::string::npos) break;
+  }
+  return o;
+}
+
 SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRenderer& render,
                                           const std::vector<std::string>& vectors,
                                           const std::vector<SlowState>& states, double period_s,
@@ -143,7 +160,7 @@ SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRend
   if (options.method == SteadyStateOptions::Method::kShooting) {
     r.method = "shooting";
     PeriodRun run;
-    if (!shooter.Run(x, 1, &run)) {
+    if (!shooter.Run(&x, 1, &run)) {
       if (!r.ok) return r;
     } else {
       std::vector<double> fx = run.boundary[0];
@@ -164,14 +181,14 @@ SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRend
         // Finite-difference Jacobian of F(x) = Phi(x) - x, one run per state.
         std::vector<std::vector<double>> jac(n, std::vector<double>(n, 0));
         for (size_t j = 0; j < n && !failed; ++j) {
-          double h = std::max(0.01 * ripple[j], 10 * states[j].floor);
           std::vector<double> xp = x;
-          xp[j] += h;
+          xp[j] += std::max(0.01 * ripple[j], 10 * states[j].floor);
           PeriodRun pr;
-          if (!shooter.Run(xp, 1, &pr)) {
+          if (!shooter.Run(&xp, 1, &pr, static_cast<int>(j))) {
             failed = true;
             break;
           }
+          double h = xp[j] - x[j];
           for (size_t i = 0; i < n; ++i) {
             jac[i][j] = (pr.boundary[0][i] - fx[i]) / h - (i == j ? 1.0 : 0.0);
           }
@@ -192,7 +209,7 @@ SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRend
           std::vector<double> xn(n);
           for (size_t i = 0; i < n; ++i) xn[i] = x[i] + lambda * dx[i];
           PeriodRun nr;
-          if (!shooter.Run(xn, 1, &nr)) {
+          if (!shooter.Run(&xn, 1, &nr)) {
             failed = true;
             break;
           }
@@ -224,30 +241,34 @@ SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRend
     }
   }
 
-  // Period by period from the best state so far, cycle-to-cycle test.
+  // Period by period from the best state so far: settled when the last
+  // `window` period boundaries all lie within tolerance of the latest.
   r.method = "periods";
   x = best_x;
-  int in_a_row = 0;
-  double last = HUGE_VAL;
+  std::vector<std::vector<double>> history = {x};
   std::vector<double> ripple = best_ripple;
+  double last = HUGE_VAL;
+  const size_t window = static_cast<size_t>(std::max(2, options.window));
   while (true) {
     int chunk = std::min(std::max(1, options.chunk_periods), options.max_periods - r.periods);
     PeriodRun run;
-    if (chunk <= 0 || !shooter.Run(x, chunk, &run)) break;
-    std::vector<double> prev = x;
-    for (int k = 0; k < chunk; ++k) {
-      std::vector<double> d(n);
-      for (size_t i = 0; i < n; ++i) d[i] = run.boundary[k][i] - prev[i];
-      last = shooter.Residual(d, run.ripple);
-      in_a_row = last <= options.tolerance ? in_a_row + 1 : 0;
-      prev = run.boundary[k];
-      if (in_a_row >= options.consecutive) break;
-    }
-    x = prev;
+    if (chunk <= 0 || !shooter.Run(&x, chunk, &run)) break;
+    history.back() = x;  // the state actually used (a retry may nudge it)
+    for (const auto& b : run.boundary) history.push_back(b);
     ripple = run.ripple;
-    if (in_a_row >= options.consecutive) {
-      r.settled = true;
-      break;
+    x = history.back();
+    if (history.size() > window + 1) history.erase(history.begin(), history.end() - (window + 1));
+    if (history.size() == window + 1) {
+      last = 0;
+      for (size_t k = 0; k + 1 < history.size(); ++k) {
+        std::vector<double> d(n);
+        for (size_t i = 0; i < n; ++i) d[i] = history[k][i] - x[i];
+        last = std::max(last, shooter.Residual(d, ripple));
+      }
+      if (last <= options.tolerance) {
+        r.settled = true;
+        break;
+      }
     }
   }
   if (!r.ok) return r;

@@ -32,6 +32,18 @@ double SlowStateFloor(const std::string& vector);
 using PeriodRenderer = std::function<bool(const std::vector<double>& x, int periods,
                                           std::string* netlist, std::string* error)>;
 
+/// Renders from `*x` and simulates `periods` periods. ngspice occasionally
+/// gives up on one particular state ("Timestep too small") and runs fine from
+/// a state a hair away; such a run is retried up to twice with the states
+/// selected by `nudge` (one index, or -1 for all) moved by +0.37 and then -0.61
+/// times their floor (far inside the tolerance). `*x` receives the state
+/// actually used. `rendered` is the netlist of the last attempt; `render_error`
+/// is set (and the result not ok) when rendering failed.
+SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render,
+                              const std::vector<std::string>& vectors,
+                              const std::vector<SlowState>& states, double period_s, int periods,
+                              int nudge, std::vector<double>* x, std::string* render_error);
+
 /// Limits and tolerances of the search.
 struct SteadyStateOptions {
   enum class Method { kShooting, kPeriods };
@@ -42,7 +54,10 @@ struct SteadyStateOptions {
   int max_newton = 8;          ///< Newton iterations before falling back
   int max_periods = 1000;      ///< periods simulated in all, every run counted
   int chunk_periods = 20;      ///< run length of the period-by-period method
-  int consecutive = 3;         ///< period-by-period: periods in a row within tolerance
+  /// Period by period: settled when the states at the last `window` period
+  /// boundaries all lie within the tolerance of the latest one (a slow ring
+  /// of the output filter passes a short cycle-to-cycle test while far off).
+  int window = 20;
 };
 
 /// The outcome. `ok` false means a simulation failed (error/log say why);
@@ -68,9 +83,10 @@ struct SteadyStateResult {
 /// period; Newton with a finite-difference Jacobian (one extra one-period run
 /// per state), steps limited and halved while the residual does not fall. If
 /// Newton fails to converge in `max_newton` iterations (or the Jacobian is
-/// singular) it continues period by period from the best state found, and
-/// stops when `consecutive` period-to-period changes in a row are within the
-/// tolerance. Never throws for a bad circuit.
+/// singular) it continues period by period from the best state found, in
+/// runs of `chunk_periods`, until the states at the last `window` period
+/// boundaries lie within the tolerance of the latest one. Never throws for a
+/// bad circuit.
 SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRenderer& render,
                                           const std::vector<std::string>& vectors,
                                           const std::vector<SlowState>& states, double period_s,
