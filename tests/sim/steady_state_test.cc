@@ -1,0 +1,142 @@
+#include "sim/steady_state.h"
+
+#include <gtest/gtest.h>
+
+#include <cmath>
+#include <cstdio>
+#include <sstream>
+
+namespace zvsmap {
+namespace {
+
+// A fake simulator whose "circuit" is an affine period map x' = A x + b of
+// two states, with the start state and the number of periods written into
+// the netlist text by the renderer. Within a period the states move linearly
+// plus a fixed ripple bump, so the ripple is known.
+class AffineMapSimulator : public Simulator {
+ public:
+  double a[2][2] = {{0.5, 0.2}, {-0.1, 0.9}};
+  double b[2] = {1.0, 2.0};
+  double ripple[2] = {0.5, 0.01};
+  int runs = 0;
+  SimulationOutput Run(const std::string& netlist, const std::vector<std::string>& vectors,
+                       double tstop_s) override {
+    ++runs;
+    std::istringstream in(netlist);
+    double x[2];
+    int periods = 0;
+    in >> x[0] >> x[1] >> periods;
+    SimulationOutput out;
+    out.ok = true;
+    std::vector<double> t;
+    std::vector<double> v[2];
+    const int per = 10;
+    for (int k = 0; k < periods; ++k) {
+      double next[2] = {a[0][0] * x[0] + a[0][1] * x[1] + b[0],
+                        a[1][0] * x[0] + a[1][1] * x[1] + b[1]};
+      for (int j = 1; j <= per; ++j) {
+        double f = static_cast<double>(j) / per;
+        t.push_back((k + f) * tstop_s / periods);
+        for (int i = 0; i < 2; ++i) {
+          v[i].push_back(x[i] + f * (next[i] - x[i]) + ripple[i] * std::sin(M_PI * f));
+        }
+      }
+      x[0] = next[0];
+      x[1] = next[1];
+    }
+    out.waves.SetTime(t);
+    out.waves.Set(vectors[0], v[0]);
+    out.waves.Set(vectors[1], v[1]);
+    return out;
+  }
+  // The fixed point of the map: (I - A)^-1 b.
+  void FixedPoint(double* x) const {
+    double m00 = 1 - a[0][0], m01 = -a[0][1], m10 = -a[1][0], m11 = 1 - a[1][1];
+    double det = m00 * m11 - m01 * m10;
+    x[0] = (m11 * b[0] - m01 * b[1]) / det;
+    x[1] = (-m10 * b[0] + m00 * b[1]) / det;
+  }
+};
+
+PeriodRenderer Renderer() {
+  return [](const std::vector<double>& x, int periods, std::string* netlist, std::string*) {
+    char buf[128];
+    std::snprintf(buf, sizeof buf, "%.17g %.17g %d", x[0], x[1], periods);
+    *netlist = buf;
+    return true;
+  };
+}
+
+const std::vector<std::string> kVectors = {"i(l1)", "v(out)"};
+const std::vector<SlowState> kStates = {{"i(l1)", 0.0, 1e-3}, {"v(out)", 0.0, 1e-3}};
+
+// Newton on an affine map converges in one step (its finite-difference
+// Jacobian is exact): Aprille & Trick, Proc. IEEE 60(1), 1972.
+TEST(SteadyStateTest, ShootingSolvesAnAffineMapInOneNewtonStep) {
+  AffineMapSimulator sim;
+  SteadyStateOptions options;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  EXPECT_EQ(r.method, "shooting");
+  EXPECT_EQ(r.iterations, 1);
+  // 1 base run + 2 Jacobian runs + 1 run at the Newton step.
+  EXPECT_EQ(r.periods, 4);
+  EXPECT_EQ(sim.runs, 4);
+  double fixed[2];
+  sim.FixedPoint(fixed);  // linear algebra, no source needed
+  EXPECT_NEAR(r.state[0], fixed[0], 1e-9);
+  EXPECT_NEAR(r.state[1], fixed[1], 1e-9);
+  EXPECT_LE(r.residual, options.tolerance);
+  EXPECT_NEAR(r.ripple[0], 0.5, 0.05);  // the sine bump over the period
+}
+
+TEST(SteadyStateTest, PeriodByPeriodReachesTheSameFixedPoint) {
+  AffineMapSimulator sim;
+  SteadyStateOptions options;
+  options.method = SteadyStateOptions::Method::kPeriods;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  EXPECT_EQ(r.method, "periods");
+  double fixed[2];
+  sim.FixedPoint(fixed);
+  // Settled means within the tolerance relative to ripple (floor 1 mV):
+  // here max(1e-3 * 0.5, 1e-3) and max(1e-3 * 0.01, 1e-3).
+  EXPECT_NEAR(r.state[0], fixed[0], 2e-2);
+  EXPECT_NEAR(r.state[1], fixed[1], 2e-2);
+  EXPECT_GT(r.periods, 20);
+}
+
+TEST(SteadyStateTest, SlowMapIsReportedUnsettledWithinThePeriodBudget) {
+  AffineMapSimulator sim;
+  sim.a[0][0] = 0.9999;
+  sim.a[0][1] = 0;
+  sim.a[1][0] = 0;
+  sim.a[1][1] = 0.9999;
+  SteadyStateOptions options;
+  options.method = SteadyStateOptions::Method::kPeriods;
+  options.max_periods = 50;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok);
+  EXPECT_FALSE(r.settled);
+  EXPECT_LE(r.periods, 50);
+  EXPECT_GT(r.residual, options.tolerance);
+}
+
+TEST(SteadyStateTest, FailedRunIsReportedNotThrown) {
+  struct Failing : Simulator {
+    SimulationOutput Run(const std::string&, const std::vector<std::string>&, double) override {
+      SimulationOutput o;
+      o.error = "engine error: singular matrix";
+      return o;
+    }
+  } sim;
+  SteadyStateResult r =
+      FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, SteadyStateOptions());
+  EXPECT_FALSE(r.ok);
+  EXPECT_NE(r.error.find("singular"), std::string::npos);
+}
+
+}  // namespace
+}  // namespace zvsmap
