@@ -46,10 +46,13 @@ std::string SweepIdentity(const std::string& sweep_path, const std::string& temp
 std::string PointContentHash(const std::string& rendered_netlist, const SweepSpec& spec,
                              const Template& tmpl) {
   uint64_t h = Fnv1a64(rendered_netlist);
-  char buf[160];
+  char buf[320];
   const SimulationSettings& s = spec.simulation;
-  std::snprintf(buf, sizeof buf, "settle=%d measure=%d max_step=%.17g reltol=%.17g", s.settle_periods,
-                s.measure_periods, s.max_step_s, s.reltol);
+  std::snprintf(buf, sizeof buf,
+                "settle=%d measure=%d max_step=%.17g reltol=%.17g method=%s tol=%.17g newton=%d "
+                "max_periods=%d",
+                s.settle_periods, s.measure_periods, s.max_step_s, s.reltol,
+                s.settle_method.c_str(), s.settle_tolerance, s.max_newton, s.max_periods);
   h = Fnv1a64(kSeparator + buf, h);
   std::snprintf(buf, sizeof buf, "zvs=%d:%.17g",
                 spec.zvs.kind == ZvsCriterion::Kind::kAbsolute ? 0 : 1, spec.zvs.value);
