@@ -50,9 +50,11 @@ TranSettings PointEvaluator::TranFor(const Variables& resolved, double period_s)
 namespace {
 
 // `tran` (step bound and tolerances) for a run of whole periods from t = 0,
-// every sample stored (the settling runs read each period's ripple).
+// every sample stored (the settling runs read each period's ripple). The run
+// goes 1 % of a period past the last boundary: ngspice failed ("Timestep too
+// small") when tstop fell exactly on a command edge.
 TranSettings TranForPeriods(TranSettings tran, double period_s, int periods) {
-  tran.tstop_s = periods * period_s;
+  tran.tstop_s = (periods + kPeriodOverrun) * period_s;
   tran.tstart_s = 0;
   return tran;
 }

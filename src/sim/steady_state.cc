@@ -53,7 +53,7 @@ class Shooter {
       for (int k = 1; k <= periods; ++k) out->boundary[k - 1][i] = Interpolate(t, v, k * period_);
       double lo = HUGE_VAL, hi = -HUGE_VAL;
       for (size_t j = 0; j < t.size(); ++j) {
-        if (t[j] < t_last) continue;
+        if (t[j] < t_last || t[j] > periods * period_) continue;
         lo = std::min(lo, v[j]);
         hi = std::max(hi, v[j]);
       }
@@ -129,7 +129,7 @@ SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render
       o.ok = false;
       return o;
     }
-    o = simulator.Run(netlist, vectors, periods * period_s);
+    o = simulator.Run(netlist, vectors, (periods + kPeriodOverrun) * period_s);
     if (o.ok || o.poisoned || o.error.find("imestep too small") == std::string::npos) break;
   }
   return o;

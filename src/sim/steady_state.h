@@ -25,9 +25,13 @@ struct SlowState {
 /// The default absolute floor of a state vector: 1e-3 (1 mA or 1 mV).
 double SlowStateFloor(const std::string& vector);
 
+/// How far past the last period boundary a run goes, in periods: ngspice
+/// failed ("Timestep too small") when tstop fell exactly on a command edge.
+constexpr double kPeriodOverrun = 0.01;
+
 /// Renders a netlist that starts every slow state at `x` (same order as the
-/// states) and simulates `periods` whole periods from t = 0 (tstop = periods
-/// times the period, every sample stored, `uic`). Returns false with a
+/// states) and simulates `periods` whole periods from t = 0 (tstop =
+/// (periods + kPeriodOverrun) times the period, every sample stored, `uic`). Returns false with a
 /// one-line `error` when it cannot.
 using PeriodRenderer = std::function<bool(const std::vector<double>& x, int periods,
                                           std::string* netlist, std::string* error)>;

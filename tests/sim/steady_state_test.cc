@@ -36,7 +36,7 @@ class AffineMapSimulator : public Simulator {
                         a[1][0] * x[0] + a[1][1] * x[1] + b[1]};
       for (int j = 1; j <= per; ++j) {
         double f = static_cast<double>(j) / per;
-        t.push_back((k + f) * tstop_s / periods);
+        t.push_back((k + f) * tstop_s / (periods + kPeriodOverrun));
         for (int i = 0; i < 2; ++i) {
           v[i].push_back(x[i] + f * (next[i] - x[i]) + ripple[i] * std::sin(M_PI * f));
         }
@@ -44,6 +44,9 @@ class AffineMapSimulator : public Simulator {
       x[0] = next[0];
       x[1] = next[1];
     }
+    t.push_back(tstop_s);  // the run's short overrun past the last boundary
+    v[0].push_back(v[0].back());
+    v[1].push_back(v[1].back());
     out.waves.SetTime(t);
     out.waves.Set(vectors[0], v[0]);
     out.waves.Set(vectors[1], v[1]);
