@@ -31,7 +31,9 @@ std::string FormatProgressLine(const ProgressCounts& c) {
 
 ProgressReporter::ProgressReporter(std::FILE* out, Mode mode, size_t total, size_t already_done,
                                    size_t already_failed, double plain_interval_s)
-    : out_(out), mode_(mode), plain_interval_s_(plain_interval_s),
+    : out_(out),
+      mode_(mode),
+      plain_interval_s_(plain_interval_s),
       started_(std::chrono::steady_clock::now()) {
   counts_.total = total;
   counts_.done = already_done;

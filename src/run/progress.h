@@ -13,11 +13,11 @@ namespace zvsmap {
 
 /// Counts shown in a progress line.
 struct ProgressCounts {
-  size_t total = 0;       ///< points in the sweep
-  size_t done = 0;        ///< finished, including those kept from an earlier run
-  size_t failed = 0;      ///< failed or unsettled among `done`
-  size_t run_now = 0;     ///< finished in this run (the rate counts these)
-  double elapsed_s = 0;   ///< since this run started
+  size_t total = 0;      ///< points in the sweep
+  size_t done = 0;       ///< finished, including those kept from an earlier run
+  size_t failed = 0;     ///< failed or unsettled among `done`
+  size_t run_now = 0;    ///< finished in this run (the rate counts these)
+  double elapsed_s = 0;  ///< since this run started
 };
 
 /// "37/120 done, 2 failed, 1.8 points/s, ETA 0:46" (rate and ETA once known).

@@ -99,9 +99,8 @@ bool DecodeResult(const std::string& data, PointResult* out) {
   uint32_t edge_count = 0, state_count = 0;
   if (!r.U8(&format) || format != kFormat || !r.U64(&index) || !r.U8(&status) ||
       status > static_cast<uint8_t>(PointStatus::kUnsettled) || !r.Str(&out->reason) ||
-      !r.Str(&out->log) || !r.Str(&out->settle.method) || !r.I32(&iterations) ||
-      !r.I32(&periods) || !r.F64(&out->settle.residual) || !r.U32(&state_count) ||
-      state_count > kMaxCount) {
+      !r.Str(&out->log) || !r.Str(&out->settle.method) || !r.I32(&iterations) || !r.I32(&periods) ||
+      !r.F64(&out->settle.residual) || !r.U32(&state_count) || state_count > kMaxCount) {
     return false;
   }
   out->settle.initial_state.clear();
@@ -122,8 +121,7 @@ bool DecodeResult(const std::string& data, PointResult* out) {
     uint32_t metric_count = 0;
     if (!r.Str(&e.cell) || !r.Str(&e.edge) || !r.U8(&zvs) ||
         zvs > static_cast<uint8_t>(ZvsClass::kUnknown) || !r.Str(&e.criterion) ||
-        !r.U32(&metric_count) ||
-        metric_count > kMaxCount) {
+        !r.U32(&metric_count) || metric_count > kMaxCount) {
       return false;
     }
     e.zvs = static_cast<ZvsClass>(zvs);

@@ -197,8 +197,8 @@ void WorkerPool::WorkerMain(int fd) {
   prctl(PR_SET_PDEATHSIG, SIGKILL);
   if (getppid() == 1) _exit(0);
   // A private working directory and HOME: ngspice reads ./.spiceinit and ~/.spiceinit.
-  std::string dir = (temp_dir_.empty() ? std::string("/tmp") : temp_dir_) + "/w" +
-                    std::to_string(getpid());
+  std::string dir =
+      (temp_dir_.empty() ? std::string("/tmp") : temp_dir_) + "/w" + std::to_string(getpid());
   if (mkdir(dir.c_str(), 0700) != 0 || chdir(dir.c_str()) != 0) _exit(70);
   setenv("HOME", dir.c_str(), 1);
 
@@ -312,7 +312,8 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
       if (options_.on_dispatch) options_.on_dispatch(w.index, w.pid);
     }
 
-    double timeout_s = options_.timeout_s > 0 ? options_.timeout_s : DerivedTimeout(first_durations);
+    double timeout_s =
+        options_.timeout_s > 0 ? options_.timeout_s : DerivedTimeout(first_durations);
     std::vector<pollfd> fds;
     std::vector<Worker*> polled;
     int wait_ms = 250;

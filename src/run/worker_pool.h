@@ -23,9 +23,9 @@ using SimulatorFactory = std::function<std::unique_ptr<Simulator>()>;
 
 /// How the pool runs its workers.
 struct WorkerPoolOptions {
-  int jobs = 0;               ///< worker processes; 0 = number of online CPUs
-  double timeout_s = 0;       ///< per-point wall-clock limit; 0 = derived (see EffectiveTimeout)
-  size_t recycle_after = 200; ///< a worker is replaced after this many points; 0 = never
+  int jobs = 0;                ///< worker processes; 0 = number of online CPUs
+  double timeout_s = 0;        ///< per-point wall-clock limit; 0 = derived (see EffectiveTimeout)
+  size_t recycle_after = 200;  ///< a worker is replaced after this many points; 0 = never
   /// Test-only fault switch, read by the worker loop: a comma list of
   /// kind:index with kind hang (sleep forever), segv (raise SIGSEGV) or exitcb
   /// (report an engine error as if ngspice's exit callback fired, then quit).

@@ -183,8 +183,8 @@ bool RunStore::ListPoints(std::vector<StoredPointKey>* out, std::string* error) 
   return true;
 }
 
-bool RunStore::SavePoint(const Point& point, const std::string& content_hash,
-                         const PointResult& r, std::string* error) {
+bool RunStore::SavePoint(const Point& point, const std::string& content_hash, const PointResult& r,
+                         std::string* error) {
   auto fail = [&](const char* what) {
     *error = std::string("run store: ") + what + ": " + sqlite3_errmsg(db_);
     std::string ignored;
@@ -205,10 +205,11 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash,
     if (!del_m.ok() || !del_e.ok() || del_m.Step() != SQLITE_DONE || del_e.Step() != SQLITE_DONE) {
       return fail("delete");
     }
-    Statement ins(db_,
-                  "INSERT OR REPLACE INTO points(idx, params, content_hash, status, reason,"
-                  " settle_method, settle_iterations, settle_periods, settle_residual, settle_state,"
-                  " wall_s, log) VALUES(?,?,?,?,?,?,?,?,?,?,?,?)");
+    Statement ins(
+        db_,
+        "INSERT OR REPLACE INTO points(idx, params, content_hash, status, reason,"
+        " settle_method, settle_iterations, settle_periods, settle_residual, settle_state,"
+        " wall_s, log) VALUES(?,?,?,?,?,?,?,?,?,?,?,?)");
     if (!ins.ok()) return fail("prepare");
     ins.Int(1, idx);
     ins.Text(2, ParamsText(point));
@@ -224,7 +225,8 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash,
     ins.Text(12, r.log);
     if (ins.Step() != SQLITE_DONE) return fail("insert point");
 
-    Statement edge(db_, "INSERT INTO edges(point, ord, cell, edge, zvs, criterion) VALUES(?,?,?,?,?,?)");
+    Statement edge(db_,
+                   "INSERT INTO edges(point, ord, cell, edge, zvs, criterion) VALUES(?,?,?,?,?,?)");
     Statement metric(db_,
                      "INSERT INTO metrics(point, edge, ord, column_name, value) VALUES(?,?,?,?,?)");
     if (!edge.ok() || !metric.ok()) return fail("prepare");
@@ -266,8 +268,8 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
                    "SELECT idx, status, reason, settle_method, settle_iterations, settle_periods,"
                    " settle_residual, settle_state, wall_s, log FROM points ORDER BY idx");
   Statement edges(db_, "SELECT point, cell, edge, zvs, criterion FROM edges ORDER BY point, ord");
-  Statement metrics(db_,
-                    "SELECT point, edge, column_name, value FROM metrics ORDER BY point, edge, ord");
+  Statement metrics(
+      db_, "SELECT point, edge, column_name, value FROM metrics ORDER BY point, edge, ord");
   if (!points.ok() || !edges.ok() || !metrics.ok()) return fail();
   int rc;
   while ((rc = points.Step()) == SQLITE_ROW) {

@@ -283,7 +283,8 @@ TEST_F(RunE2eTest, ChangedSweepOrTemplateRerunsOnlyPointsWhoseNetlistChanged) {
     fs::copy_file(entry.path(), Out(entry.path().filename().string()),
                   fs::copy_options::skip_existing);
   }
-  std::string sweep = Replace(ReadText(sweep_), "../../../netlists/buck_halfbridge.cir", "buck.cir");
+  std::string sweep =
+      Replace(ReadText(sweep_), "../../../netlists/buck_halfbridge.cir", "buck.cir");
   std::string sweep_path = Out("sweep.xml");
   WriteText(sweep_path, sweep);
   std::string log;
@@ -293,8 +294,7 @@ TEST_F(RunE2eTest, ChangedSweepOrTemplateRerunsOnlyPointsWhoseNetlistChanged) {
   WriteText(sweep_path, Replace(sweep, "values=\"1u 2.2u\"", "values=\"1u 2.2u 3.3u\""));
   const std::string old_points = "segv:0,segv:1,segv:2,segv:3,segv:4,segv:5";
   ASSERT_EQ(RunZvsmap({"run", sweep_path, "-o", Out("c"), "-j", "2"}, old_points, &log), 0) << log;
-  EXPECT_NE(log.find("6 of 9 points kept from the stored run, 3 to run"), std::string::npos)
-      << log;
+  EXPECT_NE(log.find("6 of 9 points kept from the stored run, 3 to run"), std::string::npos) << log;
 
   // A template default the sweep overrides (L) leaves every rendered netlist alone.
   WriteText(tmpl_path, Replace(tmpl, ".param L=1u", ".param L=4.7u"));

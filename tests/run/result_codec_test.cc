@@ -18,9 +18,13 @@ PointResult Sample() {
   r.status = PointStatus::kOk;
   r.reason = "";
   r.log = std::string("binary\0log\n", 11);
-  r.settle = {"periods", 0, 62, std::numeric_limits<double>::quiet_NaN(), {{"il0", -4.25}, {"vc0", 11.9}}};
+  r.settle = {
+      "periods", 0, 62, std::numeric_limits<double>::quiet_NaN(), {{"il0", -4.25}, {"vc0", 11.9}}};
   r.wall_s = 0.1;
-  r.edges.push_back({"leg", "high_on", ZvsClass::kHard, "v_turn_on <= 10% of rail",
+  r.edges.push_back({"leg",
+                     "high_on",
+                     ZvsClass::kHard,
+                     "v_turn_on <= 10% of rail",
                      {{"rail_v", 47.999999999999993}, {"z", -0.0}, {"inf", -HUGE_VAL}}});
   r.edges.push_back({"leg", "low_on", ZvsClass::kFull, "", {}});
   return r;

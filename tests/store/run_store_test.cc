@@ -35,7 +35,8 @@ PointResult FullResult() {
   r.status = PointStatus::kUnsettled;
   r.reason = "residual 3e-3 above 1e-3, \"quoted\", comma";
   r.log = "stdout line one\nstderr Error: something\n";
-  r.settle = {"shooting", 4, 17, 0.1 + 0.2, {{"il0", -4.0000000000000009}, {"vc0", -0.0}, {"x", 1e-300}}};
+  r.settle = {
+      "shooting", 4, 17, 0.1 + 0.2, {{"il0", -4.0000000000000009}, {"vc0", -0.0}, {"x", 1e-300}}};
   r.wall_s = 1.0 / 3.0;
   EdgeMeasurement e1{"leg", "high_on", ZvsClass::kPartial, "v_turn_on <= 4.8 V", {}};
   e1.metrics = {{"rail_v", 48.000000000000007},
@@ -146,7 +147,11 @@ TEST_F(RunStoreTest, StoreUsesWriteAheadLog) {
 }
 
 TEST_F(RunStoreTest, NotADatabaseIsRejected) {
-  { FILE* f = std::fopen(path_.c_str(), "w"); std::fputs("this is not sqlite, just text that is long enough to fill a header\n", f); std::fclose(f); }
+  {
+    FILE* f = std::fopen(path_.c_str(), "w");
+    std::fputs("this is not sqlite, just text that is long enough to fill a header\n", f);
+    std::fclose(f);
+  }
   std::string error;
   EXPECT_FALSE(RunStore::Open(path_, &error));
   EXPECT_NE(error.find("run.sqlite: not a usable run store"), std::string::npos) << error;
