@@ -194,6 +194,18 @@ bool Buck::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
           {"I_zvs,E = sqrt(" + N(q_node_energy) + " * " + N(swing) + " / " + N(l) +
            ") = " + N(th_e) + " A"},
           E);
+    // ZVS verdicts (1/0) beside the simulated class: the charge-based one is
+    // the condition (REFERENCES.md sec. 2), the energy-based one shows how
+    // far an Eoss-sized design would be off.
+    Prediction& vq = s.Add("high_on_zvs_charge", i0 >= th_q ? 1 : 0, "ZVS iff I0 >= I_zvs",
+                           kSrcCharge, {"I0 = " + N(i0) + " A vs " + N(th_q) + " A"}, E);
+    vq.metric = "zvs_full";
+    vq.tolerance = {0, 0.5};
+    Prediction& ve = s.Add("high_on_zvs_energy", i0 >= th_e ? 1 : 0, "ZVS iff I0 >= I_zvs,E",
+                           kSrcCharge, {"I0 = " + N(i0) + " A vs " + N(th_e) + " A"}, E);
+    ve.metric = "zvs_full";
+    ve.tag = "pred_energy";
+    ve.tolerance = {0, 0.5};
     const double t_lin = i0 > 0 ? q_node / i0 : NAN;
     s.Add("high_on_t_linear_s", t_lin, "t = (2*Qoss(Vin) + Cext*Vin)/|I| (= 2*C*Vin/|I|)",
           kSrcLinear, {"t = " + N(q_node) + " / " + N(i0) + " = " + N(t_lin) + " s"}, E);
@@ -294,6 +306,15 @@ bool Buck::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
           kSrcCharge, {"I_zvs = " + N(th_q) + " A (0 when D <= 0.5)"}, E);
     s.Add("low_on_i_zvs_energy_a", th_e, "Ipk >= sqrt((4*Eoss(Vin)/Vin + Cext*Vin)*(2*Vo - Vin)/L)",
           kSrcCharge, {"I_zvs,E = " + N(th_e) + " A"}, E);
+    Prediction& vq = s.Add("low_on_zvs_charge", ipk >= th_q ? 1 : 0, "ZVS iff Ipk >= I_zvs",
+                           kSrcCharge, {"Ipk = " + N(ipk) + " A vs " + N(th_q) + " A"}, E);
+    vq.metric = "zvs_full";
+    vq.tolerance = {0, 0.5};
+    Prediction& ve = s.Add("low_on_zvs_energy", ipk >= th_e ? 1 : 0, "ZVS iff Ipk >= I_zvs,E",
+                           kSrcCharge, {"Ipk = " + N(ipk) + " A vs " + N(th_e) + " A"}, E);
+    ve.metric = "zvs_full";
+    ve.tag = "pred_energy";
+    ve.tolerance = {0, 0.5};
     const double t_lin = ipk > 0 ? q_node / ipk : NAN;
     s.Add("low_on_t_linear_s", t_lin, "t = (2*Qoss(Vin) + Cext*Vin)/|I| (= 2*C*Vin/|I|)",
           kSrcLinear, {"t = " + N(q_node) + " / " + N(ipk) + " = " + N(t_lin) + " s"}, E);

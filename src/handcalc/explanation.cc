@@ -71,7 +71,7 @@ std::vector<std::string> ExplainComparison(const HandCalculation& calc,
       if (cell.cell != e.cell) continue;
       for (const Prediction& p : cell.predictions) {
         if (p.edge != e.edge || p.metric.empty()) continue;
-        double sim = e.Get(p.metric), diff = sim - p.value;
+        double sim = SimulatedValue(e, p.metric), diff = sim - p.value;
         std::string rel = "n/a";
         if (!std::isnan(diff) && p.value != 0) {
           char buf[32];

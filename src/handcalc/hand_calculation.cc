@@ -101,6 +101,11 @@ bool EvaluatePrediction(const PredictionSpec& p, const std::map<std::string, Kno
 
 }  // namespace
 
+double SimulatedValue(const EdgeMeasurement& edge, const std::string& metric) {
+  if (metric == "zvs_full") return edge.zvs == ZvsClass::kFull ? 1.0 : 0.0;
+  return edge.Get(metric);
+}
+
 const Prediction* CellCalculation::Find(const std::string& name) const {
   for (const Prediction& p : predictions) {
     if (Lower(p.name) == Lower(name)) return &p;
@@ -186,8 +191,11 @@ bool AddPredictionMetrics(const SweepSpec& spec, const Template& tmpl, const Var
           continue;
         }
         if (p.edge.empty()) continue;
-        std::string base = p.metric + "__" + (p.user ? p.name : std::string("pred"));
-        double sim = e.Get(p.metric), pred = p.value;
+        std::string base = p.metric + "__" +
+                           (p.user          ? p.name
+                            : p.tag.empty() ? std::string("pred")
+                                            : p.tag);
+        double sim = SimulatedValue(e, p.metric), pred = p.value;
         double diff = sim - pred;
         double rel = (pred != 0 && std::isfinite(pred)) ? diff / std::fabs(pred) : NAN;
         double beyond = std::isnan(pred) ? NAN : (p.tolerance.Exceeded(pred, sim) ? 1.0 : 0.0);

@@ -48,12 +48,19 @@ bool ComputeHandCalculation(const SweepSpec& spec, const Template& tmpl, const V
 /// <predict> uses its own name instead of "pred"), then M__pred__diff
 /// (simulated - predicted), M__pred__rel_diff (diff / |predicted|; NaN when
 /// the prediction is 0) and M__pred__beyond_tol (1/0; NaN when nothing was
-/// predicted). A <predict> without `compare` adds a column with its own name
+/// predicted). The metric "zvs_full" is the simulated ZVS class as a number
+/// (1 full, 0 partial or hard); the built-in model pairs its charge-based ZVS
+/// verdict with it as zvs_full__pred and its energy-based one as
+/// zvs_full__pred_energy. A <predict> without `compare` adds a column with its own name
 /// (on its edge's rows, or every row of its cell without `edge`). Returns
 /// false with the first problem of ComputeHandCalculation (the columns are
 /// still added, NaN where the calculation failed).
 bool AddPredictionMetrics(const SweepSpec& spec, const Template& tmpl, const Variables& resolved,
                           std::vector<EdgeMeasurement>* edges, Diagnostic* error);
+
+/// The simulated value a prediction pairs with: the edge's metric `metric`,
+/// or for "zvs_full" 1 when the edge's ZVS class is full, else 0.
+double SimulatedValue(const EdgeMeasurement& edge, const std::string& metric);
 
 /// Checks before any simulation that the template's model exists and gets its
 /// inputs, and that every <predict> expression can be evaluated at the first

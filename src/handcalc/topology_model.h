@@ -37,6 +37,9 @@ struct Prediction {
   std::string source;              ///< where the formula comes from (REFERENCES.md tag)
   std::vector<std::string> steps;  ///< the formula with numbers, intermediate values
   bool user = false;               ///< from the sweep file's <predict>, not the built-in model
+  /// The pairing's column tag for a built-in prediction ("" = "pred"); two
+  /// built-in predictions of one metric need different tags.
+  std::string tag;
 };
 
 /// One input a model reads from the resolved template parameters.

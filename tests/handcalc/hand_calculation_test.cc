@@ -140,6 +140,7 @@ TEST_F(HandCalculationTest, PairedColumnsOnTheEdge) {
   edges[0].metrics = {{"i_commutated_a", -3.8}};
   edges[1].edge = "low_on";
   edges[1].metrics = {{"i_commutated_a", 14.0}};
+  edges[0].zvs = edges[1].zvs = ZvsClass::kFull;  // as predicted (zvs_full pairs agree)
   Diagnostic error;
   ASSERT_TRUE(AddPredictionMetrics(spec_, tmpl_, resolved_, &edges, &error)) << error.Format();
   const EdgeMeasurement& e = edges[0];
@@ -150,6 +151,9 @@ TEST_F(HandCalculationTest, PairedColumnsOnTheEdge) {
   EXPECT_EQ(e.Get("i_commutated_a__iv__beyond_tol"), 0.0);    // 0.2 <= 0.3 absolute
   EXPECT_EQ(edges[1].Get("i_commutated_a__pred__beyond_tol"), 0.0);
   EXPECT_TRUE(std::isnan(edges[1].Get("i_commutated_a__iv")));  // paired with high_on only
+  EXPECT_EQ(e.Get("zvs_full__pred"), 1.0);  // I0 = 4 A >= 1.518 A (REFERENCES.md sec. 8)
+  EXPECT_EQ(e.Get("zvs_full__pred__beyond_tol"), 0.0);
+  EXPECT_EQ(e.Get("zvs_full__pred_energy__beyond_tol"), 0.0);
 
   std::vector<Point> points = {{0, {{"Iout", 5}}}};
   std::vector<PointResult> results(1);
@@ -160,7 +164,7 @@ TEST_F(HandCalculationTest, PairedColumnsOnTheEdge) {
   EXPECT_EQ(lines[1],
             "  leg.high_on i_commutated_a__pred: up to +5.0 % at point 0 (Iout=5); beyond "
             "tolerance at 1 of 1 points");
-  EXPECT_EQ(lines[3], "  (5 more pairs in edges.csv, columns *__rel_diff)");
+  EXPECT_EQ(lines[3], "  (9 more pairs in edges.csv, columns *__rel_diff)");
 }
 
 }  // namespace
