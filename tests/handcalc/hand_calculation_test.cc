@@ -127,6 +127,21 @@ TEST_F(HandCalculationTest, UnknownModelSuggestsARegisteredOne) {
             "buck.cir:5: unknown model 'bukc' in '*@ model' (did you mean 'buck'?)");
 }
 
+TEST_F(HandCalculationTest, CheckBeforeRunningNamesEveryProblem) {
+  ASSERT_TRUE(
+      Load("  <predict name=\"a\" expr=\"Vin\" cell=\"lge\"/>\n"
+           "  <predict name=\"b\" expr=\"Vinn*2\"/>\n"));
+  std::vector<Point> points = {{0, {{"Iout", 2}}}};
+  std::vector<Diagnostic> problems = CheckPredictions(spec_, tmpl_, points);
+  ASSERT_EQ(problems.size(), 2u);
+  EXPECT_EQ(problems[0].Format(),
+            path_ + ":3: prediction 'a': the template has no cell 'lge' (did you mean 'leg'?)");
+  EXPECT_EQ(problems[1].message,
+            "prediction 'b': unknown name 'Vinn' (did you mean 'vin'?) (column 1 of the "
+            "expression)");
+  EXPECT_EQ(problems[1].where.line, 4);
+}
+
 // Columns beside the measured metric: predicted, difference, relative
 // difference and the beyond-tolerance flag (arithmetic by hand: measured
 // -3.8 A against a predicted -4 A: diff +0.2 A, rel +5 %, beyond 5 % or 0.1 A).
