@@ -74,8 +74,14 @@ std::optional<double> ParseSpiceNumber(const std::string& raw) {
 }
 
 std::string FormatNumber(double value) {
+  // The shortest of 12, 15 and 17 significant digits that reads back exactly,
+  // so rendered netlists keep full precision (a period that is not a round
+  // number must land exactly on the command edges) and stay readable.
   char buf[64];
-  std::snprintf(buf, sizeof buf, "%.12g", value);
+  for (int digits : {12, 15, 17}) {
+    std::snprintf(buf, sizeof buf, "%.*g", digits, value);
+    if (std::strtod(buf, nullptr) == value) break;
+  }
   return buf;
 }
 

@@ -4,7 +4,9 @@
 #include <cctype>
 
 #include "core/spice_number.h"
+#include "handcalc/boost_model.h"
 #include "handcalc/buck_model.h"
+#include "handcalc/fullbridge_psm_model.h"
 
 namespace zvsmap {
 
@@ -38,7 +40,9 @@ double ModelContext::Input(const std::string& name) const {
 namespace {
 
 // Every built-in model; a new topology adds its line here.
-std::vector<const TopologyModel*> Registry() { return {&BuckModel()}; }
+std::vector<const TopologyModel*> Registry() {
+  return {&BuckModel(), &FullBridgePsmModel(), &BoostModel()};
+}
 
 }  // namespace
 
