@@ -13,7 +13,7 @@ namespace zvsmap {
 /// trailing non-letters, non-finite).
 std::optional<double> ParseSpiceNumber(const std::string& text);
 
-/// Formats a value compactly and exactly enough to read back (%.12g).
+/// Formats a value compactly: the shortest of %.12g, %.15g, %.17g that reads back exactly.
 std::string FormatNumber(double value);
 
 /// Formats a value with an engineering suffix for people ("4.7u", "500k").
