@@ -111,6 +111,47 @@ bool Solve(std::vector<std::vector<double>> a, std::vector<double> b, std::vecto
   return true;
 }
 
+// Remaining distance to the fixed point, scaled like Shooter::Residual,
+// estimated from the period-boundary history (oldest first) by geometric
+// extrapolation: per state, the envelope of the cycle-to-cycle change over the
+// older half (e1) and the newer half (e2) of the history gives the decay per
+// period rho = (e2/e1)^(1/h), h = the halves' distance in periods; the changes
+// still to come sum to at most e2 * rho / (1 - rho). The envelope (largest
+// |change| of a half) also bounds a decaying ring whose period is shorter than
+// a half. A change that does not decay (e2 >= e1: numerical noise or a drift
+// the history cannot resolve) counts as continuing for as many periods again
+// as the history holds. Textbook geometric series; the envelope idea is
+// common practice, no source.
+double TailEstimate(const std::vector<std::vector<double>>& history,
+                    const std::function<double(const std::vector<double>&)>& scaled) {
+  const size_t changes = history.size() - 1;
+  const size_t h = changes / 2;
+  if (h == 0) return HUGE_VAL;
+  const size_t n = history.back().size();
+  double worst = 0;
+  for (size_t i = 0; i < n; ++i) {
+    double e1 = 0, e2 = 0;
+    for (size_t k = 0; k < changes; ++k) {
+      std::vector<double> d(n, 0.0);
+      d[i] = history[k + 1][i] - history[k][i];
+      double m = scaled(d);
+      if (k < h) e1 = std::max(e1, m);
+      if (k >= changes - h) e2 = std::max(e2, m);
+    }
+    double tail;
+    if (e2 == 0) {
+      tail = 0;
+    } else if (e2 < e1) {
+      double rho = std::pow(e2 / e1, 1.0 / static_cast<double>(changes - h));
+      tail = e2 * rho / (1 - rho);
+    } else {
+      tail = e2 * static_cast<double>(changes);
+    }
+    worst = std::max(worst, tail);
+  }
+  return worst;
+}
+
 }  // namespace
 
 SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render,
@@ -242,13 +283,16 @@ SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRend
   }
 
   // Period by period from the best state so far: settled when the last
-  // `window` period boundaries all lie within tolerance of the latest.
+  // `window` period boundaries all lie within tolerance of the latest AND the
+  // geometric extrapolation of the remaining approach (TailEstimate) is
+  // within tolerance too.
   r.method = "periods";
   x = best_x;
   std::vector<std::vector<double>> history = {x};
   std::vector<double> ripple = best_ripple;
   double last = HUGE_VAL;
   const size_t window = static_cast<size_t>(std::max(2, options.window));
+  const size_t keep = 2 * window;  // boundaries kept for the tail estimate
   while (true) {
     int chunk = std::min(std::max(1, options.chunk_periods), options.max_periods - r.periods);
     PeriodRun run;
@@ -257,14 +301,17 @@ SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRend
     for (const auto& b : run.boundary) history.push_back(b);
     ripple = run.ripple;
     x = history.back();
-    if (history.size() > window + 1) history.erase(history.begin(), history.end() - (window + 1));
-    if (history.size() == window + 1) {
-      last = 0;
-      for (size_t k = 0; k + 1 < history.size(); ++k) {
+    if (history.size() > keep + 1) history.erase(history.begin(), history.end() - (keep + 1));
+    if (history.size() >= window + 1) {
+      double spread = 0;
+      for (size_t k = history.size() - (window + 1); k + 1 < history.size(); ++k) {
         std::vector<double> d(n);
         for (size_t i = 0; i < n; ++i) d[i] = history[k][i] - x[i];
-        last = std::max(last, shooter.Residual(d, ripple));
+        spread = std::max(spread, shooter.Residual(d, ripple));
       }
+      last = std::max(spread, TailEstimate(history, [&](const std::vector<double>& d) {
+                        return shooter.Residual(d, ripple);
+                      }));
       if (last <= options.tolerance) {
         r.settled = true;
         break;

@@ -60,7 +60,10 @@ struct SteadyStateOptions {
   int chunk_periods = 20;      ///< run length of the period-by-period method
   /// Period by period: settled when the states at the last `window` period
   /// boundaries all lie within the tolerance of the latest one (a slow ring
-  /// of the output filter passes a short cycle-to-cycle test while far off).
+  /// of the output filter passes a short cycle-to-cycle test while far off)
+  /// AND the remaining distance to the fixed point, extrapolated from the
+  /// decay of the cycle-to-cycle change over the last 2 * `window`
+  /// boundaries (geometric series), is within the tolerance too.
   int window = 20;
 };
 
@@ -89,8 +92,9 @@ struct SteadyStateResult {
 /// Newton fails to converge in `max_newton` iterations (or the Jacobian is
 /// singular) it continues period by period from the best state found, in
 /// runs of `chunk_periods`, until the states at the last `window` period
-/// boundaries lie within the tolerance of the latest one. Never throws for a
-/// bad circuit.
+/// boundaries lie within the tolerance of the latest one and the geometric
+/// extrapolation of the remaining change is within it too (see
+/// SteadyStateOptions::window). Never throws for a bad circuit.
 SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRenderer& render,
                                           const std::vector<std::string>& vectors,
                                           const std::vector<SlowState>& states, double period_s,

@@ -111,6 +111,56 @@ TEST(SteadyStateTest, PeriodByPeriodReachesTheSameFixedPoint) {
   EXPECT_GT(r.periods, 20);
 }
 
+// A slow, non-oscillating mode (contraction 0.995 per period): the last 20
+// boundaries lie within 1e-3 of each other while the state is still ~10x the
+// tolerance from the fixed point (20 * 0.005 * distance = 1e-3). The
+// geometric-tail test must carry on until the distance itself is within the
+// tolerance. Geometric series; linear algebra for the fixed point, no source.
+TEST(SteadyStateTest, PeriodByPeriodDoesNotStopEarlyOnASlowMode) {
+  AffineMapSimulator sim;
+  sim.a[0][0] = 0.995;
+  sim.a[0][1] = 0;
+  sim.a[1][0] = 0;
+  sim.a[1][1] = 0.995;
+  sim.b[0] = 0.1;
+  sim.b[1] = 0.05;
+  SteadyStateOptions options;
+  options.method = SteadyStateOptions::Method::kPeriods;
+  options.max_periods = 5000;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  double fixed[2];
+  sim.FixedPoint(fixed);  // (20, 10)
+  // Scale of both states: max(ripple, floor / tolerance) = 1, so 1e-3.
+  EXPECT_NEAR(r.state[0], fixed[0], options.tolerance);
+  EXPECT_NEAR(r.state[1], fixed[1], options.tolerance);
+  EXPECT_LE(r.residual, options.tolerance);
+}
+
+// A lightly damped ring, like an LC output filter with a light load: the map
+// rotates by 2*pi/15 per period and contracts by 0.98. The cycle-to-cycle
+// change swings through zero every half ring; the tail test follows its
+// envelope. Linear algebra, no source.
+TEST(SteadyStateTest, PeriodByPeriodFollowsALightlyDampedRingToTheFixedPoint) {
+  AffineMapSimulator sim;
+  const double r0 = 0.98, th = 2 * M_PI / 15;
+  sim.a[0][0] = r0 * std::cos(th);
+  sim.a[0][1] = -r0 * std::sin(th);
+  sim.a[1][0] = r0 * std::sin(th);
+  sim.a[1][1] = r0 * std::cos(th);
+  SteadyStateOptions options;
+  options.method = SteadyStateOptions::Method::kPeriods;
+  options.max_periods = 5000;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  double fixed[2];
+  sim.FixedPoint(fixed);
+  EXPECT_NEAR(r.state[0], fixed[0], options.tolerance);
+  EXPECT_NEAR(r.state[1], fixed[1], options.tolerance);
+}
+
 TEST(SteadyStateTest, SlowMapIsReportedUnsettledWithinThePeriodBudget) {
   AffineMapSimulator sim;
   sim.a[0][0] = 0.9999;
