@@ -35,6 +35,10 @@ std::string Point::Describe() const {
     if (!out.empty()) out += ' ';
     out += v.name + "=" + FormatEngineering(v.value);
   }
+  for (const auto& [role, device] : devices) {
+    if (!out.empty()) out += ' ';
+    out += role + "=" + device;
+  }
   return out;
 }
 

@@ -22,6 +22,9 @@ struct ParamValue {
 struct Point {
   size_t index = 0;
   std::vector<ParamValue> values;
+  /// Switch models chosen by device axes: (role "cell.high"/"cell.low",
+  /// device name), in axis order. Empty: the template's own switches.
+  std::vector<std::pair<std::string, std::string>> devices = {};
 
   /// The value of `name` (compared case-insensitively, as SPICE does), if this
   /// point sets it.

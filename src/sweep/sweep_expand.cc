@@ -32,8 +32,15 @@ bool ExpandSweep(const SweepSpec& spec, std::vector<Point>* points, Diagnostic* 
     p.index = index;
     for (const FixedValue& f : spec.fixed) p.values.push_back({f.param, f.value});
     for (size_t g = 0; g < spec.groups.size(); ++g) {
-      for (const AxisSpec& a : spec.groups[g].axes)
+      for (const AxisSpec& a : spec.groups[g].axes) {
+        if (!a.device_roles.empty()) {
+          // A device axis sets no parameter: it picks each role's switch model.
+          for (const auto& role : a.device_roles)
+            p.devices.emplace_back(role, a.device_names[digit[g]]);
+          continue;
+        }
         p.values.push_back({a.param, a.values[digit[g]]});
+      }
     }
     for (const DerivedValue& d : spec.derived) {
       // Every value of the point so far is visible, under the name the sweep

@@ -11,6 +11,7 @@
 
 #include "core/spice_number.h"
 #include "sweep/axis_values.h"
+#include "sweep/device_parser.h"
 #include "sweep/prediction_parser.h"
 #include "sweep/requirement_parser.h"
 
@@ -140,6 +141,8 @@ class Parser {
   bool ParseTemplate(pugi::xml_node node);
   bool ParseSet(pugi::xml_node node);
   bool ParseAxis(pugi::xml_node node, AxisSpec* axis);
+  bool ParseDeviceAxis(pugi::xml_node node, AxisSpec* axis);
+  bool CheckDeviceAxes();
   bool ParseLockstep(pugi::xml_node node);
   bool ParseDerive(pugi::xml_node node);
   bool ParseSimulation(pugi::xml_node node);
@@ -273,7 +276,64 @@ bool Parser::ParseSet(pugi::xml_node node) {
   return true;
 }
 
+// <axis device="cell.high cell.low" values="name1 name2"/>: which switch
+// model each role gets; the values are <device> names (checked at the end).
+bool Parser::ParseDeviceAxis(pugi::xml_node node, AxisSpec* axis) {
+  if (!CheckShape(node, {"device", "values"})) return false;
+  axis->where = Where(node);
+  std::string roles, values;
+  if (!Required(node, "device", &roles) || !Required(node, "values", &values)) return false;
+  for (const std::string& role : SplitValueList(roles)) {
+    std::string r = Lower(role);
+    size_t dot = r.rfind('.');
+    std::string side = dot == std::string::npos ? "" : r.substr(dot + 1);
+    if (dot == 0 || (side != "high" && side != "low")) {
+      return FailAttr(node, "device",
+                      "bad switch role '" + role + "' (use CELL.high or CELL.low, e.g. leg.high)");
+    }
+    auto inserted = param_lines_.emplace("device:" + r, axis->where.line);
+    if (!inserted.second) {
+      return FailAttr(node, "device",
+                      "switch role '" + role + "' is assigned twice (first on line " +
+                          std::to_string(inserted.first->second) + ")");
+    }
+    axis->device_roles.push_back(r);
+  }
+  for (const std::string& item : SplitValueList(values)) {
+    axis->device_names.push_back(item);
+    axis->values.push_back(static_cast<double>(axis->values.size()));
+  }
+  if (axis->device_roles.empty()) return FailAttr(node, "device", "device axis names no role");
+  if (axis->values.empty()) return FailAttr(node, "values", "device axis has no values");
+  return true;
+}
+
+// Every device axis value names a declared <device>.
+bool Parser::CheckDeviceAxes() {
+  for (const AxisGroup& g : spec_->groups) {
+    for (const AxisSpec& a : g.axes) {
+      for (const std::string& name : a.device_names) {
+        std::vector<std::string> declared;
+        bool found = false;
+        for (const DeviceSpec& d : spec_->devices) {
+          declared.push_back(d.name);
+          found = found || Lower(d.name) == Lower(name);
+        }
+        if (!found) {
+          return Fail(a.where, "unknown device '" + name + "' (declare it with <device name=\"" +
+                                 name + "\" .../>" +
+                                 (ClosestName(name, declared).empty()
+                                      ? std::string(")")
+                                      : "; did you mean '" + ClosestName(name, declared) + "'?)"));
+        }
+      }
+    }
+  }
+  return true;
+}
+
 bool Parser::ParseAxis(pugi::xml_node node, AxisSpec* axis) {
+  if (node.attribute("device")) return ParseDeviceAxis(node, axis);
   if (!CheckShape(node, {"param", "values", "from", "to", "step", "count", "spacing"}) ||
       !ParamName(node, &axis->param)) {
     return false;
@@ -464,7 +524,7 @@ bool Parser::Run(bool check_template_exists) {
 
   static const std::vector<std::string> kElements = {"template", "set",        "axis", "lockstep",
                                                      "derive",   "simulation", "zvs",  "limits",
-                                                     "require",  "predict"};
+                                                     "require",  "predict",    "device"};
   for (pugi::xml_node node : root.children()) {
     if (node.type() != pugi::node_element) {
       return Fail(WhereText(node), "unexpected text in <sweep>");
@@ -505,6 +565,16 @@ bool Parser::Run(bool check_template_exists) {
       };
       ok = ParseRequirement(node, Where(node), fail, &r);
       if (ok) spec_->requirements.push_back(std::move(r));
+    } else if (name == "device") {
+      DeviceSpec d;
+      auto fail = [&](const char* attribute, const std::string& message) {
+        return attribute ? FailAttr(node, attribute, message) : Fail(node, message);
+      };
+      auto where = [&](const char* attribute) {
+        return attribute ? WhereAttr(node, attribute) : Where(node);
+      };
+      ok = ParseDevice(node, path_, spec_->devices, where, fail, &d);
+      if (ok) spec_->devices.push_back(std::move(d));
     } else if (name == "predict") {
       PredictionSpec p;
       auto fail = [&](const char* attribute, const std::string& message) {
@@ -520,6 +590,7 @@ bool Parser::Run(bool check_template_exists) {
     return Fail(root, "missing <template file=\"...\"/>");
   }
   if (!CheckRequirementNames(*spec_, error_)) return Fail(error_->where, error_->message);
+  if (!CheckDeviceAxes()) return false;
   if (check_template_exists) {
     std::error_code ec;
     if (!std::filesystem::is_regular_file(spec_->template_path, ec)) {

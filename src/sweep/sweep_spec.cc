@@ -27,7 +27,9 @@ std::vector<std::pair<std::string, SourceLocation>> SweepSpec::NamedParams() con
   std::vector<std::pair<std::string, SourceLocation>> out;
   for (const FixedValue& f : fixed) out.emplace_back(f.param, f.where);
   for (const AxisGroup& g : groups) {
-    for (const AxisSpec& a : g.axes) out.emplace_back(a.param, a.where);
+    for (const AxisSpec& a : g.axes) {
+      if (a.device_roles.empty()) out.emplace_back(a.param, a.where);
+    }
   }
   for (const DerivedValue& d : derived) out.emplace_back(d.param, d.where);
   return out;

@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "core/diagnostic.h"
+#include "sweep/device_spec.h"
 #include "sweep/prediction_spec.h"
 #include "sweep/requirement_spec.h"
 
@@ -14,9 +15,14 @@ namespace zvsmap {
 
 /// One swept parameter and its values, in the order they are visited.
 struct AxisSpec {
-  std::string param;
-  std::vector<double> values;
+  std::string param;          ///< "" for a device axis
+  std::vector<double> values; ///< a device axis: indices into device_names
   SourceLocation where;
+  /// A device axis (<axis device="leg.high leg.low" values="wbg sj"/>): the
+  /// switch roles ("cell.high"/"cell.low", lower-case) it assigns and the
+  /// device names it visits, as written.
+  std::vector<std::string> device_roles = {};
+  std::vector<std::string> device_names = {};
 };
 
 /// Axes that combine as one grid dimension. A plain <axis> is a group of one;
@@ -87,6 +93,7 @@ struct SweepSpec {
   SourceLocation limits_where;  ///< the <limits> element, else the <sweep> root (for the size error)
   std::vector<RequirementSpec> requirements;  ///< <require> elements, in file order
   std::vector<PredictionSpec> predictions;    ///< <predict> elements, in file order
+  std::vector<DeviceSpec> devices;            ///< <device> elements, in file order
 
   /// Number of points of the crossed grid (product of group sizes).
   size_t GridSize() const;
