@@ -44,6 +44,12 @@ void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
   const char* eol = "\r\n";
   out << "point";
   for (const auto& p : params) out << ',' << CsvField(p);
+  // Device axes: one column per switch role, holding the device's name.
+  std::vector<std::string> roles;
+  if (!points.empty()) {
+    for (const auto& d : points.front().devices) roles.push_back(d.first);
+  }
+  for (const auto& r : roles) out << ',' << CsvField(r);
   out << ",cell,edge,zvs_class";
   for (const auto& m : metrics) out << ',' << CsvField(m);
   out << ",status,reason,wall_time_s" << eol;
@@ -56,6 +62,9 @@ void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
       for (const auto& name : params) {
         auto v = point.Get(name);
         out << ',' << (v ? CsvNumber(*v) : "");
+      }
+      for (size_t k = 0; k < roles.size(); ++k) {
+        out << ',' << (k < point.devices.size() ? CsvField(point.devices[k].second) : "");
       }
     };
     auto suffix = [&] {

@@ -21,6 +21,24 @@ const char* PointStatusName(PointStatus s) {
   return "failed";
 }
 
+PointEvaluator::PointEvaluator(const SweepSpec& spec, const Template& tmpl)
+    : spec_(spec), tmpl_(tmpl) {
+  std::vector<Diagnostic> errors;
+  if (!ResolveSweepDevices(spec_, tmpl_, &devices_, &errors)) devices_error_ = errors[0].Format();
+}
+
+bool PointEvaluator::RenderFor(const Point& point, const Variables& resolved,
+                               const TranSettings& tran, std::string* netlist,
+                               std::string* why) const {
+  *netlist = RenderNetlist(tmpl_, resolved, tran, VectorsToSave(tmpl_));
+  if (point.devices.empty()) return true;
+  if (!devices_error_.empty()) {
+    *why = devices_error_;
+    return false;
+  }
+  return ApplyDevices(tmpl_, devices_, point.devices, netlist, why);
+}
+
 TranSettings PointEvaluator::TranFor(const Variables& resolved, double period_s) const {
   const SimulationSettings& sim = spec_.simulation;
   TranSettings tran;
@@ -71,7 +89,11 @@ bool PointEvaluator::Render(const Point& point, std::string* netlist, Diagnostic
   double period = 0;
   if (!ResolveParams(tmpl_, point.values, &resolved, error)) return false;
   if (!ResolvePeriod(tmpl_, resolved, &period, error)) return false;
-  *netlist = RenderNetlist(tmpl_, resolved, TranFor(resolved, period), VectorsToSave(tmpl_));
+  std::string why;
+  if (!RenderFor(point, resolved, TranFor(resolved, period), netlist, &why)) {
+    *error = Diagnostic{{spec_.path, 0, 0}, why, {}};
+    return false;
+  }
   return true;
 }
 
@@ -123,9 +145,8 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
       *why = d.Format();
       return false;
     }
-    *netlist = RenderNetlist(tmpl_, r, TranForPeriods(TranFor(r, period), period, periods),
-                             vectors);
-    return true;
+    return RenderFor(point, r, TranForPeriods(TranFor(r, period), period, periods), netlist,
+                     why);
   };
   SteadyStateOptions options;
   options.method = sim.settle_method == "periods" ? SteadyStateOptions::Method::kPeriods

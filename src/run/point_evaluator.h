@@ -4,6 +4,7 @@
 #include <string>
 
 #include "core/diagnostic.h"
+#include "netlist/device_models.h"
 #include "netlist/render.h"
 #include "netlist/template.h"
 #include "run/point_result.h"
@@ -17,7 +18,9 @@ namespace zvsmap {
 /// one its process owns (a worker's ngspice, or a fake in tests).
 class PointEvaluator {
  public:
-  PointEvaluator(const SweepSpec& spec, const Template& tmpl) : spec_(spec), tmpl_(tmpl) {}
+  /// Reads the sweep's <device> model files (PrepareSweep has checked them;
+  /// a device that fails here makes each point using it fail with the reason).
+  PointEvaluator(const SweepSpec& spec, const Template& tmpl);
 
   /// Renders the point's netlist as it will be simulated (also for the user
   /// to run in plain ngspice). Fails when a parameter cannot be evaluated.
@@ -33,8 +36,14 @@ class PointEvaluator {
   TranSettings TranFor(const Variables& resolved, double period_s) const;
 
  private:
+  /// RenderNetlist plus the point's switch models (ApplyDevices).
+  bool RenderFor(const Point& point, const Variables& resolved, const TranSettings& tran,
+                 std::string* netlist, std::string* why) const;
+
   const SweepSpec& spec_;
   const Template& tmpl_;
+  std::vector<ResolvedDevice> devices_;
+  std::string devices_error_;
 };
 
 }  // namespace zvsmap

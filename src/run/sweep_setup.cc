@@ -22,6 +22,7 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     errors->insert(errors->end(), unknown.begin(), unknown.end());
     return false;
   }
+  if (!ResolveSweepDevices(out->spec, out->tmpl, &out->devices, errors)) return false;
   if (!ExpandSweep(out->spec, &out->points, &error)) {
     errors->push_back(error);
     return false;

@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "core/diagnostic.h"
+#include "netlist/device_models.h"
 #include "netlist/template.h"
 #include "sweep/point.h"
 #include "sweep/sweep_spec.h"
@@ -16,10 +17,12 @@ struct PreparedSweep {
   SweepSpec spec;
   Template tmpl;
   std::vector<Point> points;
+  std::vector<ResolvedDevice> devices;  ///< the sweep's <device> models, checked
 };
 
 /// Parses the sweep file, loads its template, checks every parameter name
-/// against the template and expands the points. `max_points_override` > 0
+/// against the template, checks the <device> models (files, subcircuits, pin
+/// maps, roles) and expands the points. `max_points_override` > 0
 /// replaces the file's limit. All problems found are returned (at least one
 /// on failure); nothing is simulated.
 bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, PreparedSweep* out,

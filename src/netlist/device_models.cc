@@ -1,0 +1,450 @@
+#include "netlist/device_models.h"
+
+#include <algorithm>
+#include <cctype>
+#include <filesystem>
+#include <fstream>
+#include <map>
+#include <set>
+#include <sstream>
+
+namespace zvsmap {
+
+namespace {
+
+std::string Lower(std::string s) {
+  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
+  return s;
+}
+
+// Splits a SPICE line into tokens; text inside {}, () and quotes stays whole.
+std::vector<std::string> Tokens(const std::string& line) {
+  std::vector<std::string> out;
+  std::string cur;
+  int depth = 0;
+  char quote = 0;
+  for (char c : line) {
+    if (quote) {
+      cur += c;
+      if (c == quote) quote = 0;
+      continue;
+    }
+    if (c == '\'' || c == '"') {
+      quote = c;
+      cur += c;
+      continue;
+    }
+    if (c == '{' || c == '(') ++depth;
+    if (c == '}' || c == ')') --depth;
+    if (depth <= 0 && (c == ' ' || c == '\t' || c == '\r')) {
+      if (!cur.empty()) out.push_back(cur);
+      cur.clear();
+      depth = 0;
+      continue;
+    }
+    cur += c;
+  }
+  if (!cur.empty()) out.push_back(cur);
+  // "name = value" written with blanks: glue it back together.
+  std::vector<std::string> glued;
+  for (size_t i = 0; i < out.size(); ++i) {
+    if (out[i] == "=" && !glued.empty() && i + 1 < out.size()) {
+      glued.back() += "=" + out[++i];
+    } else if (!out[i].empty() && out[i].back() == '=' && i + 1 < out.size()) {
+      glued.push_back(out[i] + out[i + 1]);
+      ++i;
+    } else if (!out[i].empty() && out[i][0] == '=' && !glued.empty()) {
+      glued.back() += out[i];
+    } else {
+      glued.push_back(out[i]);
+    }
+  }
+  return glued;
+}
+
+std::string ParamName(const std::string& token) { return Lower(token.substr(0, token.find('='))); }
+
+std::string Join(const std::vector<std::string>& v, const char* sep) {
+  std::string out;
+  for (const auto& s : v) out += (out.empty() ? "" : sep) + s;
+  return out;
+}
+
+std::string Where(const SourceLocation& w) {
+  return w.file + ":" + std::to_string(w.line);
+}
+
+// A template instance line split into name, nodes, model and parameters.
+struct InstanceLine {
+  std::string name;
+  std::vector<std::string> nodes;
+  std::string model;
+  std::vector<std::string> params;
+};
+
+bool SplitInstance(const std::string& line, InstanceLine* out) {
+  std::vector<std::string> t = Tokens(line);
+  size_t first_param = t.size();
+  for (size_t i = 1; i < t.size(); ++i) {
+    if (t[i].find('=') != std::string::npos || Lower(t[i]) == "params:") {
+      first_param = i;
+      break;
+    }
+  }
+  if (first_param < 5) return false;  // name, at least d g s, model
+  out->name = t[0];
+  out->nodes.assign(t.begin() + 1, t.begin() + static_cast<long>(first_param) - 1);
+  out->model = t[first_param - 1];
+  out->params.clear();
+  for (size_t i = first_param; i < t.size(); ++i) {
+    if (Lower(t[i]) != "params:") out->params.push_back(t[i]);
+  }
+  return true;
+}
+
+// The template line (logical) of instance `name`, or nullptr.
+const std::string* FindInstance(const Template& tmpl, const std::string& name) {
+  for (const auto& [line, text] : tmpl.lines) {
+    (void)line;
+    std::vector<std::string> t = Tokens(text);
+    if (!t.empty() && Lower(t[0]) == Lower(name)) return &text;
+  }
+  return nullptr;
+}
+
+// Subcircuit names the template itself defines (lower-case).
+std::vector<std::string> TemplateSubckts(const Template& tmpl) {
+  std::vector<std::string> out;
+  for (const auto& [line, text] : tmpl.lines) {
+    (void)line;
+    std::vector<std::string> t = Tokens(text);
+    if (t.size() >= 2 && Lower(t[0]) == ".subckt") out.push_back(Lower(t[1]));
+  }
+  return out;
+}
+
+}  // namespace
+
+std::string GenericLibraryPath() { return std::string(ZVSMAP_SOURCE_DIR) + "/netlists/switches.lib"; }
+
+bool ScanSubckts(const std::string& path, std::vector<SubcktInfo>* out, std::string* error) {
+  out->clear();
+  std::ifstream in(path, std::ios::binary);
+  if (!in) {
+    *error = "cannot read '" + path + "'";
+    return false;
+  }
+  // Logical lines (continuations joined) with their first physical line, and
+  // the physical text for copying blocks.
+  std::vector<std::pair<int, std::string>> logical;
+  std::vector<std::string> physical;
+  std::string line;
+  int number = 0;
+  while (std::getline(in, line)) {
+    ++number;
+    if (!line.empty() && line.back() == '\r') line.pop_back();
+    physical.push_back(line);
+    size_t b = line.find_first_not_of(" \t");
+    if (b != std::string::npos && line[b] == '+' && !logical.empty()) {
+      logical.back().second += " " + line.substr(b + 1);
+    } else {
+      logical.emplace_back(number, line);
+    }
+  }
+  SubcktInfo* open = nullptr;
+  int depth = 0;
+  for (const auto& [first, text] : logical) {
+    std::vector<std::string> t = Tokens(text);
+    if (t.empty()) continue;
+    std::string head = Lower(t[0]);
+    if (head == ".subckt") {
+      if (depth++ > 0) continue;  // a nested definition belongs to the outer block
+      out->emplace_back();
+      open = &out->back();
+      open->name = t.size() > 1 ? t[1] : "";
+      open->where = {path, first, 0};
+      bool in_params = false;
+      for (size_t i = 2; i < t.size(); ++i) {
+        if (Lower(t[i]) == "params:") {
+          in_params = true;
+        } else if (t[i].find('=') != std::string::npos) {
+          in_params = true;
+          open->params.push_back(ParamName(t[i]));
+        } else if (!in_params) {
+          open->pins.push_back(Lower(t[i]));
+        }
+      }
+      continue;
+    }
+    if (!open) continue;
+    if (head == ".ends") {
+      if (--depth == 0) {
+        for (int k = open->where.line; k <= first && k <= static_cast<int>(physical.size()); ++k)
+          open->text += physical[k - 1] + "\n";
+        open = nullptr;
+      }
+      continue;
+    }
+    if (depth == 1 && head == "vch") open->has_vch = true;
+  }
+  return true;
+}
+
+bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* error) {
+  out->spec = spec;
+  out->targets.clear();
+  auto fail = [&](const SourceLocation& where, const std::string& message) {
+    *error = Diagnostic{where, message, {}};
+    return false;
+  };
+  std::string file = spec.generic ? GenericLibraryPath() : spec.file;
+  std::error_code ec;
+  if (!std::filesystem::is_regular_file(file, ec)) {
+    if (spec.generic) return fail(spec.where, "the generic switch library '" + file + "' is missing");
+    return fail(spec.file_where, "device '" + spec.name + "': model file '" +
+                                     spec.file_as_written + "' does not exist (looked for '" +
+                                     file + "')");
+  }
+  std::vector<SubcktInfo> found;
+  std::string message;
+  if (!ScanSubckts(file, &found, &message)) return fail(spec.file_where, message);
+  auto it = std::find_if(found.begin(), found.end(), [&](const SubcktInfo& s) {
+    return Lower(s.name) == Lower(spec.subckt);
+  });
+  if (it == found.end()) {
+    std::vector<std::string> names;
+    for (const auto& s : found) names.push_back(s.name);
+    std::string best = ClosestName(spec.subckt, names);
+    std::string shown = spec.generic ? "netlists/switches.lib" : spec.file_as_written;
+    return fail(spec.subckt_where,
+                "device '" + spec.name + "': subcircuit '" + spec.subckt + "' not found in '" +
+                    shown + "' (" +
+                    (names.empty() ? std::string("it defines no .subckt")
+                                   : "it defines: " + Join(names, ", ")) +
+                    (best.empty() ? "" : "; did you mean '" + best + "'?") + ")");
+  }
+  out->subckt = *it;
+  const SubcktInfo& sub = out->subckt;
+  std::string which = "subcircuit '" + sub.name + "' (" + Where(sub.where) + ") has pins (" +
+                      Join(sub.pins, " ") + ")";
+  if (spec.generic) {
+    if (sub.pins.size() != 3) {
+      return fail(spec.subckt_where, "generic model '" + sub.name + "' must have pins d g s");
+    }
+    out->targets = {"d", "g", "s"};
+    return true;
+  }
+  if (spec.positional) {
+    if (spec.pins.size() != sub.pins.size()) {
+      return fail(spec.pins_where, "device '" + spec.name + "': the pin map has " +
+                                       std::to_string(spec.pins.size()) + " entries but " +
+                                       which);
+    }
+    for (const auto& tie : spec.pins) out->targets.push_back(tie.to);
+  } else {
+    for (const auto& tie : spec.pins) {
+      if (std::find(sub.pins.begin(), sub.pins.end(), tie.pin) == sub.pins.end()) {
+        std::string best = ClosestName(tie.pin, sub.pins);
+        return fail(spec.pins_where, "device '" + spec.name + "': the pin map names pin '" +
+                                         tie.pin + "' but " + which +
+                                         (best.empty() ? "" : " (did you mean '" + best + "'?)"));
+      }
+    }
+    for (const auto& pin : sub.pins) {
+      auto tie = std::find_if(spec.pins.begin(), spec.pins.end(),
+                              [&](const PinTie& t) { return t.pin == pin; });
+      if (tie == spec.pins.end()) {
+        return fail(spec.pins_where,
+                    "device '" + spec.name + "': pin '" + pin + "' of " + which +
+                        " is left floating; tie it to d, g, s, a node (@name) or a voltage");
+      }
+      out->targets.push_back(tie->to);
+    }
+  }
+  static const char* kRoles[][2] = {{"d", "drain"}, {"g", "gate"}, {"s", "source"}};
+  for (const auto& role : kRoles) {
+    if (std::find(out->targets.begin(), out->targets.end(), role[0]) == out->targets.end()) {
+      return fail(spec.pins_where, "device '" + spec.name + "': no pin of " + which +
+                                       " is tied to the switch's " + role[1] + " (" + role[0] +
+                                       "), which would leave that node floating");
+    }
+  }
+  return true;
+}
+
+bool ResolveSweepDevices(const SweepSpec& spec, const Template& tmpl,
+                         std::vector<ResolvedDevice>* out, std::vector<Diagnostic>* errors) {
+  out->clear();
+  size_t before = errors->size();
+  for (const DeviceSpec& d : spec.devices) {
+    ResolvedDevice r;
+    Diagnostic e;
+    if (ResolveDevice(d, &r, &e)) {
+      out->push_back(std::move(r));
+    } else {
+      errors->push_back(e);
+    }
+  }
+  for (const AxisGroup& g : spec.groups) {
+    for (const AxisSpec& a : g.axes) {
+      for (const std::string& role : a.device_roles) {
+        size_t dot = role.rfind('.');
+        std::string cell_name = role.substr(0, dot), side = role.substr(dot + 1);
+        auto cell = std::find_if(tmpl.cells.begin(), tmpl.cells.end(),
+                                 [&](const CellSpec& c) { return c.name == cell_name; });
+        std::string instance = cell == tmpl.cells.end() ? ""
+                               : side == "high"         ? cell->high
+                                                        : cell->low;
+        InstanceLine parsed;
+        const std::string* line = instance.empty() ? nullptr : FindInstance(tmpl, instance);
+        if (cell == tmpl.cells.end()) {
+          errors->push_back({a.where, "switch role '" + role + "': the template has no cell '" +
+                                          cell_name + "'", {}});
+        } else if (instance.empty()) {
+          errors->push_back({a.where, "switch role '" + role + "': cell '" + cell_name +
+                                          "' names no " + side + " switch (key " + side + "=)",
+                             {}});
+        } else if (!line || !SplitInstance(*line, &parsed)) {
+          errors->push_back({a.where, "switch role '" + role + "': instance '" + instance +
+                                          "' is not a subcircuit instance with pins d g s in '" +
+                                          tmpl.path + "'",
+                             {}});
+        }
+      }
+    }
+  }
+  return errors->size() == before;
+}
+
+DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& instance,
+                              const std::string& drain, const std::string& gate,
+                              const std::string& source,
+                              const std::vector<std::string>& inherited,
+                              const std::vector<std::string>& defined_subckts) {
+  DeviceLines out;
+  const SubcktInfo& sub = device.subckt;
+  if (device.spec.generic) {
+    if (std::find(defined_subckts.begin(), defined_subckts.end(), Lower(sub.name)) ==
+        defined_subckts.end()) {
+      out.definitions.push_back("* generic switch model from netlists/switches.lib\n" + sub.text);
+    }
+  } else if (!device.spec.section.empty()) {
+    out.definitions.push_back(".lib \"" + device.spec.file + "\" " + device.spec.section + "\n");
+  } else {
+    out.definitions.push_back(".include \"" + device.spec.file + "\"\n");
+  }
+  // Parameters: of the template instance's only the initial drain-source
+  // voltage (a property of the circuit, not of the device), if the subcircuit
+  // declares it; then the device's own.
+  std::vector<std::string> own = Tokens(device.spec.params);
+  std::set<std::string> own_names;
+  for (const auto& p : own) own_names.insert(ParamName(p));
+  std::vector<std::string> params;
+  for (const auto& p : inherited) {
+    std::string name = ParamName(p);
+    if (name == "vds0_v" && !own_names.count(name) &&
+        std::find(sub.params.begin(), sub.params.end(), name) != sub.params.end()) {
+      params.push_back(p);
+    }
+  }
+  params.insert(params.end(), own.begin(), own.end());
+  std::string param_text = params.empty() ? "" : " " + Join(params, " ");
+
+  // Fixed-voltage pins get a source of their own at the top level.
+  std::string inst_lower = Lower(instance);
+  auto tie_node = [&](size_t pin) {
+    const std::string& to = device.targets[pin];
+    if (!to.empty() && to[0] == '@') return to.substr(1);
+    std::string node = "zt_" + inst_lower + "_" + sub.pins[pin];
+    out.definitions.push_back("vzt_" + inst_lower + "_" + sub.pins[pin] + " " + node + " 0 dc " +
+                              to + "\n");
+    return node;
+  };
+  if (sub.has_vch) {
+    // The subcircuit follows zvsmap's convention (a vch in its channel): place it directly.
+    std::string line = instance;
+    for (size_t i = 0; i < sub.pins.size(); ++i) {
+      const std::string& to = device.targets[i];
+      line += " " + (to == "d" ? drain : to == "g" ? gate : to == "s" ? source : tie_node(i));
+    }
+    out.instance = line + " " + sub.name + param_text;
+    return out;
+  }
+  // Otherwise a wrapper with vch in series with the drain; tied pins become extra ports.
+  std::string wrapper = "zvsmap_w_" + inst_lower;
+  std::string ports = "d g s", outer = drain + " " + gate + " " + source, inner;
+  for (size_t i = 0; i < sub.pins.size(); ++i) {
+    const std::string& to = device.targets[i];
+    if (to == "d") {
+      inner += " d_dut";
+    } else if (to == "g" || to == "s") {
+      inner += " " + to;
+    } else {
+      std::string port = "t_" + sub.pins[i];
+      ports += " " + port;
+      outer += " " + tie_node(i);
+      inner += " " + port;
+    }
+  }
+  out.definitions.push_back("* wrapper: i(v." + inst_lower +
+                            ".vch) is the drain terminal current of " + sub.name + "\n.subckt " +
+                            wrapper + " " + ports + "\nvch d d_dut 0\nx1" + inner + " " +
+                            sub.name + param_text + "\n.ends " + wrapper + "\n");
+  out.instance = instance + " " + outer + " " + wrapper;
+  return out;
+}
+
+bool ApplyDevices(const Template& tmpl, const std::vector<ResolvedDevice>& devices,
+                  const std::vector<std::pair<std::string, std::string>>& choice,
+                  std::string* netlist, std::string* error) {
+  if (choice.empty()) return true;
+  std::vector<std::string> defined = TemplateSubckts(tmpl);
+  std::map<std::string, std::string> replacement;  // lower-case instance -> new line
+  std::vector<std::string> definitions;
+  for (const auto& [role, name] : choice) {
+    auto dev = std::find_if(devices.begin(), devices.end(), [&](const ResolvedDevice& d) {
+      return Lower(d.spec.name) == Lower(name);
+    });
+    size_t dot = role.rfind('.');
+    std::string cell_name = role.substr(0, dot), side = role.substr(dot + 1);
+    auto cell = std::find_if(tmpl.cells.begin(), tmpl.cells.end(),
+                             [&](const CellSpec& c) { return c.name == cell_name; });
+    if (dev == devices.end() || cell == tmpl.cells.end()) {
+      *error = "unknown device '" + name + "' or role '" + role + "'";
+      return false;
+    }
+    std::string instance = side == "high" ? cell->high : cell->low;
+    const std::string* line = FindInstance(tmpl, instance);
+    InstanceLine parsed;
+    if (!line || !SplitInstance(*line, &parsed)) {
+      *error = "instance '" + instance + "' not found in '" + tmpl.path + "'";
+      return false;
+    }
+    DeviceLines lines = InstantiateDevice(*dev, parsed.name, parsed.nodes[0], parsed.nodes[1],
+                                          parsed.nodes[2], parsed.params, defined);
+    for (const auto& d : lines.definitions) {
+      if (std::find(definitions.begin(), definitions.end(), d) == definitions.end())
+        definitions.push_back(d);
+    }
+    replacement[Lower(parsed.name)] = lines.instance;
+  }
+  std::istringstream in(*netlist);
+  std::ostringstream out;
+  std::string text;
+  bool first = true;
+  while (std::getline(in, text)) {
+    if (first) {
+      out << text << "\n* zvsmap switch models\n";
+      for (const auto& d : definitions) out << d;
+      first = false;
+      continue;
+    }
+    std::vector<std::string> t = Tokens(text);
+    auto it = t.empty() ? replacement.end() : replacement.find(Lower(t[0]));
+    out << (it == replacement.end() ? text : it->second) << "\n";
+  }
+  *netlist = out.str();
+  return true;
+}
+
+}  // namespace zvsmap

@@ -1,0 +1,84 @@
+// Switch models in rendered netlists: the generic library (netlists/switches.lib)
+// and the user's own subcircuits from .include/.lib files, tied in by a pin map.
+// See README "Switch models".
+#pragma once
+
+#include <string>
+#include <utility>
+#include <vector>
+
+#include "core/diagnostic.h"
+#include "netlist/template.h"
+#include "sweep/device_spec.h"
+#include "sweep/sweep_spec.h"
+
+namespace zvsmap {
+
+/// A `.subckt` found in a model file.
+struct SubcktInfo {
+  std::string name;                 ///< as written
+  std::vector<std::string> pins;    ///< lower-case, in order
+  std::vector<std::string> params;  ///< lower-case names declared after `params:`
+  bool has_vch = false;             ///< has an element named vch (zvsmap's channel-current probe)
+  SourceLocation where;             ///< the .subckt line
+  std::string text;                 ///< the block from .subckt to .ends, physical lines
+};
+
+/// The generic switch library shipped in netlists/.
+std::string GenericLibraryPath();
+
+/// Every subcircuit defined in `path` (nested .include files are not followed).
+/// False with `error` when the file cannot be read.
+bool ScanSubckts(const std::string& path, std::vector<SubcktInfo>* out, std::string* error);
+
+/// A device checked against its model file: the subcircuit it names and, for
+/// each of its pins in order, where that pin is tied ("d", "g", "s", "@node"
+/// or a number).
+struct ResolvedDevice {
+  DeviceSpec spec;
+  SubcktInfo subckt;
+  std::vector<std::string> targets;
+};
+
+/// Checks one device before anything runs: the model file exists, the
+/// subcircuit is in it (case-insensitive), the pin map matches its pins by
+/// count or names, every pin is tied and drain, gate and source are each used.
+/// Errors point at the sweep file's attribute and name the model file:line.
+bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* error);
+
+/// Resolves every device of the sweep and checks each device axis's roles
+/// against the template's cells (the cell exists and names that switch's
+/// instance). Returns all problems.
+bool ResolveSweepDevices(const SweepSpec& spec, const Template& tmpl,
+                         std::vector<ResolvedDevice>* out, std::vector<Diagnostic>* errors);
+
+/// The lines that put `device` in a netlist as the three-terminal switch
+/// `instance` between `drain`, `gate`, `source`: `definitions` (model file
+/// .include/.lib, or the generic subcircuit's text unless `defined_subckts`
+/// already has it; sources for fixed-voltage pins; a wrapper when the
+/// subcircuit has no `vch`) and the `instance` line. `inherited` are
+/// name=value parameters of the template's instance: only `vds0_v` (the
+/// initial drain-source voltage, a property of the circuit) is kept, and only
+/// when the subcircuit declares it; then the device's own params are added.
+/// Without `vch` inside the user's subcircuit, a wrapper adds one in series
+/// with the drain, so i(v.<instance>.vch) is then the drain terminal current
+/// (channel plus output capacitance plus reverse conduction).
+struct DeviceLines {
+  std::vector<std::string> definitions;
+  std::string instance;
+};
+DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& instance,
+                              const std::string& drain, const std::string& gate,
+                              const std::string& source,
+                              const std::vector<std::string>& inherited,
+                              const std::vector<std::string>& defined_subckts);
+
+/// Rewrites a rendered netlist for a point's device choice ((role, device
+/// name) pairs, roles "cell.high"/"cell.low"): each role's switch instance is
+/// replaced and the definitions are inserted after the title. False with
+/// `error` for an unknown role or device (a bug once ResolveSweepDevices passed).
+bool ApplyDevices(const Template& tmpl, const std::vector<ResolvedDevice>& devices,
+                  const std::vector<std::pair<std::string, std::string>>& choice,
+                  std::string* netlist, std::string* error);
+
+}  // namespace zvsmap
