@@ -17,6 +17,11 @@ void AddPointsCommand(CLI::App& app, int* exit_code);
 /// Adds `zvsmap explain` (one point's hand calculation beside its simulation).
 void AddExplainCommand(CLI::App& app, int* exit_code);
 
+/// Adds `zvsmap calibrate` (fit Coss forms to datasheet-style numbers).
+void AddCalibrateCommand(CLI::App& app, int* exit_code);
+/// Adds `zvsmap characterize` (tabulate a switch model's Coss, Qoss, Eoss and reverse curve).
+void AddCharacterizeCommand(CLI::App& app, int* exit_code);
+
 /// Prints diagnostics as "zvsmap: error: ..." on stderr.
 void PrintErrors(const std::vector<zvsmap::Diagnostic>& errors);
 

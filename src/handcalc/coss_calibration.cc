@@ -1,6 +1,7 @@
 #include "handcalc/coss_calibration.h"
 
 #include <cmath>
+#include <cstdio>
 #include <functional>
 
 #include "core/spice_number.h"
@@ -25,6 +26,13 @@ class PowerLawCapacitance : public OutputCapacitance {
  private:
   double k_, g_;
 };
+
+// A ratio or exponent for messages, 4 significant digits.
+std::string Short(double x) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.4g", x);
+  return buf;
+}
 
 // (1 + x)^a - 1 without cancellation at small x.
 double PowMinusOne(double x, double a) { return std::expm1(a * std::log1p(x)); }
@@ -106,7 +114,7 @@ bool FitPowerLaw(const CossDatasheet& data, PowerLawFit* fit, std::string* error
   if (!CheckData(data, error)) return false;
   double r = data.co_tr_f / data.co_er_f;
   if (!(r > 0.5)) {
-    *error = "Co(tr)/Co(er) = " + FormatNumber(r) + " <= 1/2: no power law has that ratio";
+    *error = "Co(tr)/Co(er) = " + Short(r) + " <= 1/2: no power law has that ratio";
     return false;
   }
   fit->ratio = r;
@@ -157,9 +165,8 @@ bool FitJunction(const CossDatasheet& data, double m_fixed, JunctionFit* fit,
       prev_f = f;
     }
     if (best_m < 0) {
-      *error = "Co(tr)/Co(er) = " + FormatNumber(r) +
-               " is outside what the junction form reaches for any 0 < m < 1 (1 < r < inf as "
-               "m -> 1; r must exceed 1)";
+      *error = "Co(tr)/Co(er) = " + Short(r) +
+               ": the junction form with 0 < m < 1 needs a ratio above 1";
       return false;
     }
     m = best_m;
@@ -180,14 +187,14 @@ bool FitJunction(const CossDatasheet& data, double m_fixed, JunctionFit* fit,
     }
   }
   if (!(m > 0 && m < 1)) {
-    *error = "m = " + FormatNumber(m) + " is outside 0 < m < 1";
+    *error = "m = " + Short(m) + " is outside 0 < m < 1";
     return false;
   }
   double c0 = 0, vj = 0;
   if (!params_for(m, &c0, &vj)) {
-    *error = "Co(tr)/Co(er) = " + FormatNumber(r) +
-             " is outside what the junction form with m = " + FormatNumber(m) + " reaches (1 to " +
-             FormatNumber((2 - m) / (2 * (1 - m))) + "); give another m or a small-signal C";
+    *error = "Co(tr)/Co(er) = " + Short(r) +
+             " is outside what the junction form with m = " + Short(m) + " reaches (1 to " +
+             Short((2 - m) / (2 * (1 - m))) + "); give another m or a small-signal C";
     return false;
   }
   fit->c0_f = c0;

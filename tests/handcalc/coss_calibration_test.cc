@@ -11,15 +11,16 @@
 namespace zvsmap {
 namespace {
 
-// integral_0^V f(u) du with u = V*s^2 (clusters samples near 0, where C(V)
-// is steep), composite Simpson in s with 20000 intervals.
+// integral_0^V f(u) du with u = V*s^4 (clusters samples near 0, where C(V)
+// is steep or, for a power law, infinite), composite Simpson in s with 20000
+// intervals; the s = 0 end contributes nothing (f(u) du -> 0 there).
 double Integrate(const std::function<double(double)>& f, double v) {
   const int n = 20000;
   double sum = 0;
-  for (int k = 0; k <= n; ++k) {
+  for (int k = 1; k <= n; ++k) {
     double s = static_cast<double>(k) / n;
-    double w = (k == 0 || k == n) ? 1 : (k % 2 ? 4 : 2);
-    sum += w * f(v * s * s) * 2 * v * s;
+    double w = k == n ? 1 : (k % 2 ? 4 : 2);
+    sum += w * f(v * s * s * s * s) * 4 * v * s * s * s;
   }
   return sum / (3.0 * n);
 }
