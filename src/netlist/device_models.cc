@@ -225,8 +225,8 @@ bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* erro
   }
   out->subckt = *it;
   const SubcktInfo& sub = out->subckt;
-  std::string which = "subcircuit '" + sub.name + "' (" + Where(sub.where) + ") has pins (" +
-                      Join(sub.pins, " ") + ")";
+  std::string which = "subcircuit '" + sub.name + "' (" + Where(sub.where) + ")";
+  std::string pins = "pins (" + Join(sub.pins, " ") + ")";
   if (spec.generic) {
     if (sub.pins.size() != 3) {
       return fail(spec.subckt_where, "generic model '" + sub.name + "' must have pins d g s");
@@ -238,7 +238,8 @@ bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* erro
     if (spec.pins.size() != sub.pins.size()) {
       return fail(spec.pins_where, "device '" + spec.name + "': the pin map has " +
                                        std::to_string(spec.pins.size()) + " entries but " +
-                                       which);
+                                       which + " has " + std::to_string(sub.pins.size()) + " " +
+                                       pins);
     }
     for (const auto& tie : spec.pins) out->targets.push_back(tie.to);
   } else {
@@ -246,7 +247,7 @@ bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* erro
       if (std::find(sub.pins.begin(), sub.pins.end(), tie.pin) == sub.pins.end()) {
         std::string best = ClosestName(tie.pin, sub.pins);
         return fail(spec.pins_where, "device '" + spec.name + "': the pin map names pin '" +
-                                         tie.pin + "' but " + which +
+                                         tie.pin + "' but " + which + " has " + pins +
                                          (best.empty() ? "" : " (did you mean '" + best + "'?)"));
       }
     }

@@ -112,7 +112,7 @@ TEST_F(DeviceModelsTest, SubcircuitNotInTheFile) {
 TEST_F(DeviceModelsTest, PinCountDoesNotMatch) {
   EXPECT_FALSE(Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"FET5\" pins=\"d g s\"/>\n"));
   EXPECT_EQ(FirstError(), "s.xml:3: device 'a': the pin map has 3 entries but subcircuit 'Fet5' (" +
-                              (dir_ / "models.lib").string() + ":6) has pins (d g s ks tj)");
+                              (dir_ / "models.lib").string() + ":6) has 5 pins (d g s ks tj)");
 }
 
 TEST_F(DeviceModelsTest, PinNameNotInTheSubcircuit) {
@@ -128,16 +128,16 @@ TEST_F(DeviceModelsTest, PinLeftFloating) {
       Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet5\" pins=\"D=d G=g S=s KS=s\"/>\n"));
   EXPECT_EQ(FirstError(), "s.xml:3: device 'a': pin 'tj' of subcircuit 'Fet5' (" +
                               (dir_ / "models.lib").string() +
-                              ":6) has pins (d g s ks tj) is left floating; tie it to d, g, s, a "
-                              "node (@name) or a voltage");
+                              ":6) is left floating; tie it to d, g, s, a node (@name) or a "
+                              "voltage");
 }
 
 TEST_F(DeviceModelsTest, SwitchNodeLeftFloating) {
   EXPECT_FALSE(Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet_sdg\" pins=\"s d s\"/>\n"));
   EXPECT_EQ(FirstError(), "s.xml:3: device 'a': no pin of subcircuit 'fet_sdg' (" +
                               (dir_ / "models.lib").string() +
-                              ":2) has pins (s d g) is tied to the switch's gate (g), which would "
-                              "leave that node floating");
+                              ":2) is tied to the switch's gate (g), which would leave that node "
+                              "floating");
 }
 
 TEST_F(DeviceModelsTest, BadPinMapSyntaxAndUnknownNamesAreParseErrors) {

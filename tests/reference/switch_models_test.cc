@@ -91,6 +91,33 @@ TEST_F(SwitchModelsTest, JunctionChargeAndEnergyMatchTheClosedForms) {
   }
 }
 
+TEST_F(SwitchModelsTest, SubcircuitWithoutChannelProbeIsWrappedAndMeasured) {
+  // tests/netlist/fixtures/reordered_switch.lib plain_sw: 1 nF linear, 1 Meg leakage.
+  // Linear capacitor: Q = C V, E = C V^2 / 2 (textbook); the leakage must cancel.
+  DeviceSpec spec;
+  spec.name = "plain";
+  spec.file = SourcePath("tests/netlist/fixtures/reordered_switch.lib");
+  spec.subckt = "PLAIN_SW";
+  spec.positional = true;
+  spec.pins = {{"", "d"}, {"", "s"}, {"", "g"}};
+  ResolvedDevice device;
+  Diagnostic error;
+  ASSERT_TRUE(ResolveDevice(spec, &device, &error)) << error.Format();
+  EXPECT_FALSE(device.subckt.has_vch);
+  CharacterizeOptions options;
+  options.v_max_v = 100;
+  options.table_rows = 2;
+  options.reverse_rows = 1;
+  options.i_reverse_max_a = 1e-6;
+  Characterization table;
+  std::string why;
+  ASSERT_TRUE(CharacterizeSwitch(SharedNgspice(), device, options, &table, &why)) << why;
+  for (const CossRow& row : table.coss) {
+    EXPECT_NEAR(row.q_c, 1e-9 * row.v_v, 0.01 * 1e-9 * row.v_v);
+    EXPECT_NEAR(row.e_j, 0.5e-9 * row.v_v * row.v_v, 0.01 * 0.5e-9 * row.v_v * row.v_v);
+  }
+}
+
 TEST_F(SwitchModelsTest, BodyDiodeCurveFollowsTheDiodeEquation) {
   // Forward drop of a junction diode: V = vf + n Vt ln(I / 1 A) + I rs with the
   // library's is = 1 A * exp(-vf/(n Vt)) (Shockley diode equation, Sedra & Smith ch. 4).
