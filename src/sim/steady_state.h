@@ -77,8 +77,10 @@ struct SteadyStateResult {
   std::string method;     ///< "shooting" or "periods" (the method that finished)
   int iterations = 0;     ///< Newton iterations taken
   int periods = 0;        ///< periods simulated in all
-  /// max over states of |x(T) - x(0)| / max(ripple, floor / tolerance); the
-  /// point is settled when this is <= tolerance.
+  /// Shooting: max over states of |x(T) - x(0)| / max(ripple, floor /
+  /// tolerance). Period by period: the larger of the window's spread and the
+  /// extrapolated remaining change, in the same units. The point is settled
+  /// when this is <= tolerance.
   double residual = 0;
   std::vector<double> state;   ///< the settled (or last) start-of-period state
   std::vector<double> ripple;  ///< each state's ripple over the last period

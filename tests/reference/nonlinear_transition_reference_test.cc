@@ -11,9 +11,11 @@
 // Zane, IEEE Trans. Power Electron. 30(2), 2015 [pub].
 #include <gtest/gtest.h>
 
+#include <algorithm>
 #include <array>
 #include <boost/numeric/odeint.hpp>
 #include <cmath>
+#include <cstdio>
 #include <string>
 
 #include "analysis/edge_finder.h"
@@ -141,7 +143,9 @@ TEST(NonlinearTransitionReferenceTest, TimeToRailMatchesOdeintIntegration) {
 //   energy-based  I_e = sqrt(2 (2 Eoss(Vin)/Vin) (Vin - 2 Vo) / L)
 // REFERENCES.md sec. 2 [derived]; Costinett et al. (2015) [pub]: the charge-based
 // ratio at the boundary is 1 within a few %, the energy-based one is off by
-// sqrt(Co(tr)/Co(er)) = 1.16.
+// sqrt(Co(tr)/Co(er)) = 1.16. (The dead time is long enough that a run with
+// the energy to reach the rail does so before the channel turns on; were it
+// too short, the simulated boundary would move above the charge-based one.)
 TEST(NonlinearTransitionReferenceTest, ZvsBoundaryFollowsTheChargeBasedCondition) {
   struct Sample {
     bool reached = false;
