@@ -66,8 +66,7 @@ void AddCalibrateCommand(CLI::App& app, int* exit_code) {
     }
     if ((opts->co_tr.empty() == opts->qoss.empty()) ||
         (opts->co_er.empty() == opts->eoss.empty())) {
-      std::fprintf(stderr,
-                   "zvsmap: error: give one of --co-tr/--qoss and one of --co-er/--eoss\n");
+      std::fprintf(stderr, "zvsmap: error: give one of --co-tr/--qoss and one of --co-er/--eoss\n");
       return;
     }
     if (opts->c_small.empty() != opts->c_small_v.empty()) {

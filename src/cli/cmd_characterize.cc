@@ -90,8 +90,8 @@ void AddCharacterizeCommand(CLI::App& app, int* exit_code) {
       }
     }
     CharacterizeOptions co;
-    if (!Number("--vmax", opts->v_max, &co.v_max_v) || !Number("--irev", opts->i_rev,
-                                                               &co.i_reverse_max_a) ||
+    if (!Number("--vmax", opts->v_max, &co.v_max_v) ||
+        !Number("--irev", opts->i_rev, &co.i_reverse_max_a) ||
         !Number("--ramp", opts->ramp, &co.ramp_s)) {
       return;
     }

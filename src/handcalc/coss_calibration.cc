@@ -74,8 +74,7 @@ bool SolveJunctionX(double r, double m, double* x) {
 std::string Volts(double v) { return FormatEngineering(v) + " V"; }
 
 void Reproduce(const CossDatasheet& data, const OutputCapacitance& c,
-               const std::function<double(double)>& small_signal,
-               std::vector<Reproduction>* out) {
+               const std::function<double(double)>& small_signal, std::vector<Reproduction>* out) {
   double v = data.v_rated_v;
   out->push_back({"Co(tr)(" + Volts(v) + ")", data.co_tr_f, c.ChargeEquivalent(v)});
   out->push_back({"Co(er)(" + Volts(v) + ")", data.co_er_f, c.EnergyEquivalent(v)});
@@ -123,12 +122,12 @@ bool FitPowerLaw(const CossDatasheet& data, PowerLawFit* fit, std::string* error
   fit->reproduced.clear();
   auto c = MakePowerLawCapacitance(fit->k, fit->g);
   double k = fit->k, g = fit->g;
-  Reproduce(data, *c, [k, g](double v) { return k * std::pow(v, -g); }, &fit->reproduced);
+  Reproduce(
+      data, *c, [k, g](double v) { return k * std::pow(v, -g); }, &fit->reproduced);
   return true;
 }
 
-bool FitJunction(const CossDatasheet& data, double m_fixed, JunctionFit* fit,
-                 std::string* error) {
+bool FitJunction(const CossDatasheet& data, double m_fixed, JunctionFit* fit, std::string* error) {
   if (!CheckData(data, error)) return false;
   double r = data.co_tr_f / data.co_er_f;
   double v = data.v_rated_v;
@@ -202,7 +201,8 @@ bool FitJunction(const CossDatasheet& data, double m_fixed, JunctionFit* fit,
   fit->m = m;
   fit->reproduced.clear();
   auto c = MakeJunctionCapacitance(c0, vj, m);
-  Reproduce(data, *c, [=](double u) { return c0 / std::pow(1 + u / vj, m); }, &fit->reproduced);
+  Reproduce(
+      data, *c, [=](double u) { return c0 / std::pow(1 + u / vj, m); }, &fit->reproduced);
   return true;
 }
 

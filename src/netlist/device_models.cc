@@ -70,9 +70,7 @@ std::string Join(const std::vector<std::string>& v, const char* sep) {
   return out;
 }
 
-std::string Where(const SourceLocation& w) {
-  return w.file + ":" + std::to_string(w.line);
-}
+std::string Where(const SourceLocation& w) { return w.file + ":" + std::to_string(w.line); }
 
 // A template instance line split into name, nodes, model and parameters.
 struct InstanceLine {
@@ -125,7 +123,9 @@ std::vector<std::string> TemplateSubckts(const Template& tmpl) {
 
 }  // namespace
 
-std::string GenericLibraryPath() { return std::string(ZVSMAP_SOURCE_DIR) + "/netlists/switches.lib"; }
+std::string GenericLibraryPath() {
+  return std::string(ZVSMAP_SOURCE_DIR) + "/netlists/switches.lib";
+}
 
 bool ScanSubckts(const std::string& path, std::vector<SubcktInfo>* out, std::string* error) {
   out->clear();
@@ -200,28 +200,27 @@ bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* erro
   std::string file = spec.generic ? GenericLibraryPath() : spec.file;
   std::error_code ec;
   if (!std::filesystem::is_regular_file(file, ec)) {
-    if (spec.generic) return fail(spec.where, "the generic switch library '" + file + "' is missing");
-    return fail(spec.file_where, "device '" + spec.name + "': model file '" +
-                                     spec.file_as_written + "' does not exist (looked for '" +
-                                     file + "')");
+    if (spec.generic)
+      return fail(spec.where, "the generic switch library '" + file + "' is missing");
+    return fail(spec.file_where, "device '" + spec.name + "': model file '" + spec.file_as_written +
+                                     "' does not exist (looked for '" + file + "')");
   }
   std::vector<SubcktInfo> found;
   std::string message;
   if (!ScanSubckts(file, &found, &message)) return fail(spec.file_where, message);
-  auto it = std::find_if(found.begin(), found.end(), [&](const SubcktInfo& s) {
-    return Lower(s.name) == Lower(spec.subckt);
-  });
+  auto it = std::find_if(found.begin(), found.end(),
+                         [&](const SubcktInfo& s) { return Lower(s.name) == Lower(spec.subckt); });
   if (it == found.end()) {
     std::vector<std::string> names;
     for (const auto& s : found) names.push_back(s.name);
     std::string best = ClosestName(spec.subckt, names);
     std::string shown = spec.generic ? "netlists/switches.lib" : spec.file_as_written;
-    return fail(spec.subckt_where,
-                "device '" + spec.name + "': subcircuit '" + spec.subckt + "' not found in '" +
-                    shown + "' (" +
-                    (names.empty() ? std::string("it defines no .subckt")
-                                   : "it defines: " + Join(names, ", ")) +
-                    (best.empty() ? "" : "; did you mean '" + best + "'?") + ")");
+    return fail(spec.subckt_where, "device '" + spec.name + "': subcircuit '" + spec.subckt +
+                                       "' not found in '" + shown + "' (" +
+                                       (names.empty() ? std::string("it defines no .subckt")
+                                                      : "it defines: " + Join(names, ", ")) +
+                                       (best.empty() ? "" : "; did you mean '" + best + "'?") +
+                                       ")");
   }
   out->subckt = *it;
   const SubcktInfo& sub = out->subckt;
@@ -237,9 +236,8 @@ bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* erro
   if (spec.positional) {
     if (spec.pins.size() != sub.pins.size()) {
       return fail(spec.pins_where, "device '" + spec.name + "': the pin map has " +
-                                       std::to_string(spec.pins.size()) + " entries but " +
-                                       which + " has " + std::to_string(sub.pins.size()) + " " +
-                                       pins);
+                                       std::to_string(spec.pins.size()) + " entries but " + which +
+                                       " has " + std::to_string(sub.pins.size()) + " " + pins);
     }
     for (const auto& tie : spec.pins) out->targets.push_back(tie.to);
   } else {
@@ -299,16 +297,20 @@ bool ResolveSweepDevices(const SweepSpec& spec, const Template& tmpl,
         InstanceLine parsed;
         const std::string* line = instance.empty() ? nullptr : FindInstance(tmpl, instance);
         if (cell == tmpl.cells.end()) {
-          errors->push_back({a.where, "switch role '" + role + "': the template has no cell '" +
-                                          cell_name + "'", {}});
+          errors->push_back(
+              {a.where,
+               "switch role '" + role + "': the template has no cell '" + cell_name + "'",
+               {}});
         } else if (instance.empty()) {
-          errors->push_back({a.where, "switch role '" + role + "': cell '" + cell_name +
-                                          "' names no " + side + " switch (key " + side + "=)",
+          errors->push_back({a.where,
+                             "switch role '" + role + "': cell '" + cell_name + "' names no " +
+                                 side + " switch (key " + side + "=)",
                              {}});
         } else if (!line || !SplitInstance(*line, &parsed)) {
-          errors->push_back({a.where, "switch role '" + role + "': instance '" + instance +
-                                          "' is not a subcircuit instance with pins d g s in '" +
-                                          tmpl.path + "'",
+          errors->push_back({a.where,
+                             "switch role '" + role + "': instance '" + instance +
+                                 "' is not a subcircuit instance with pins d g s in '" + tmpl.path +
+                                 "'",
                              {}});
         }
       }
@@ -319,8 +321,7 @@ bool ResolveSweepDevices(const SweepSpec& spec, const Template& tmpl,
 
 DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& instance,
                               const std::string& drain, const std::string& gate,
-                              const std::string& source,
-                              const std::vector<std::string>& inherited,
+                              const std::string& source, const std::vector<std::string>& inherited,
                               const std::vector<std::string>& defined_subckts) {
   DeviceLines out;
   const SubcktInfo& sub = device.subckt;
@@ -389,8 +390,8 @@ DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& i
   }
   out.definitions.push_back("* wrapper: i(v." + inst_lower +
                             ".vch) is the drain terminal current of " + sub.name + "\n.subckt " +
-                            wrapper + " " + ports + "\nvch d d_dut 0\nx1" + inner + " " +
-                            sub.name + param_text + "\n.ends " + wrapper + "\n");
+                            wrapper + " " + ports + "\nvch d d_dut 0\nx1" + inner + " " + sub.name +
+                            param_text + "\n.ends " + wrapper + "\n");
   out.instance = instance + " " + outer + " " + wrapper;
   return out;
 }

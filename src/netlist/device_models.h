@@ -69,8 +69,7 @@ struct DeviceLines {
 };
 DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& instance,
                               const std::string& drain, const std::string& gate,
-                              const std::string& source,
-                              const std::vector<std::string>& inherited,
+                              const std::string& source, const std::vector<std::string>& inherited,
                               const std::vector<std::string>& defined_subckts);
 
 /// Rewrites a rendered netlist for a point's device choice ((role, device

@@ -52,8 +52,7 @@ std::string ReverseNetlist(const ResolvedDevice& device, const CharacterizeOptio
 }
 
 bool CharacterizeSwitch(Simulator& simulator, const ResolvedDevice& device,
-                        const CharacterizeOptions& o, Characterization* out,
-                        std::string* error) {
+                        const CharacterizeOptions& o, Characterization* out, std::string* error) {
   out->coss.clear();
   out->reverse.clear();
   out->netlist_coss = CossNetlist(device, o);

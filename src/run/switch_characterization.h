@@ -14,12 +14,12 @@ namespace zvsmap {
 
 /// How the model is driven.
 struct CharacterizeOptions {
-  double v_max_v = 48;       ///< highest drain-source voltage of the table
-  int table_rows = 24;       ///< rows at v_max * k / rows, k = 1..rows
-  double ramp_s = 10e-6;     ///< duration of the voltage ramp up (and of the ramp down)
-  double v_gate_off_v = 0;   ///< gate-source voltage that holds the switch off
-  double i_reverse_max_a = 10;  ///< highest reverse current of the diode curve
-  int reverse_rows = 20;     ///< rows at i_max * k / rows
+  double v_max_v = 48;           ///< highest drain-source voltage of the table
+  int table_rows = 24;           ///< rows at v_max * k / rows, k = 1..rows
+  double ramp_s = 10e-6;         ///< duration of the voltage ramp up (and of the ramp down)
+  double v_gate_off_v = 0;       ///< gate-source voltage that holds the switch off
+  double i_reverse_max_a = 10;   ///< highest reverse current of the diode curve
+  int reverse_rows = 20;         ///< rows at i_max * k / rows
   double reverse_ramp_s = 1e-3;  ///< duration of the (slow) reverse-current ramp
   double reltol = 1e-5;
 };

@@ -107,8 +107,8 @@ bool ParseDevice(pugi::xml_node node, const std::string& sweep_path,
   }
   out->params = node.attribute("params").value();
   bool has_model = node.attribute("model");
-  bool has_file = node.attribute("file") || node.attribute("subckt") ||
-                  node.attribute("pins") || node.attribute("section");
+  bool has_file = node.attribute("file") || node.attribute("subckt") || node.attribute("pins") ||
+                  node.attribute("section");
   if (has_model == has_file) {
     return fail(nullptr,
                 "<device> takes either model=\"zsw_...\" (a generic library model) or "

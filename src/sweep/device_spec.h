@@ -22,9 +22,9 @@ struct PinTie {
 
 /// One <device> element.
 struct DeviceSpec {
-  std::string name;          ///< the label used in <axis device=...> and the CSV
-  bool generic = false;      ///< true: `subckt` is a model of netlists/switches.lib
-  std::string file;          ///< model file resolved against the sweep file's folder ("" if generic)
+  std::string name;      ///< the label used in <axis device=...> and the CSV
+  bool generic = false;  ///< true: `subckt` is a model of netlists/switches.lib
+  std::string file;      ///< model file resolved against the sweep file's folder ("" if generic)
   std::string file_as_written;
   std::string section;       ///< non-empty: `.lib FILE SECTION` instead of `.include FILE`
   std::string subckt;        ///< subcircuit name as written

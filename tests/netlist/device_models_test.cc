@@ -44,8 +44,8 @@ r1 D S 1
 class DeviceModelsTest : public ::testing::Test {
  protected:
   void SetUp() override {
-    dir_ = std::filesystem::temp_directory_path() /
-           ("zvsmap_devices_" + std::to_string(::getpid()));
+    dir_ =
+        std::filesystem::temp_directory_path() / ("zvsmap_devices_" + std::to_string(::getpid()));
     std::filesystem::create_directories(dir_);
     std::ofstream(dir_ / "models.lib") << kModels;
     ASSERT_TRUE(ParseTemplateText(kTemplate, "t.cir", &tmpl_, &error_)) << error_.Format();
@@ -95,37 +95,42 @@ TEST_F(DeviceModelsTest, ScansSubcircuitsWithContinuationsCaseInsensitively) {
 }
 
 TEST_F(DeviceModelsTest, MissingModelFile) {
-  EXPECT_FALSE(Resolve(
-      "<device name=\"a\" file=\"nowhere.lib\" subckt=\"x\" pins=\"d g s\"/>\n"
-      "<axis device=\"leg.high\" values=\"a\"/>\n"));
-  EXPECT_EQ(FirstError(), "s.xml:3: device 'a': model file 'nowhere.lib' does not exist "
-                          "(looked for '" + (dir_ / "nowhere.lib").string() + "')");
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" file=\"nowhere.lib\" subckt=\"x\" pins=\"d g s\"/>\n"
+              "<axis device=\"leg.high\" values=\"a\"/>\n"));
+  EXPECT_EQ(FirstError(),
+            "s.xml:3: device 'a': model file 'nowhere.lib' does not exist "
+            "(looked for '" +
+                (dir_ / "nowhere.lib").string() + "')");
 }
 
 TEST_F(DeviceModelsTest, SubcircuitNotInTheFile) {
-  EXPECT_FALSE(Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet_sgd\" pins=\"s d g\"/>\n"));
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet_sgd\" pins=\"s d g\"/>\n"));
   EXPECT_EQ(FirstError(),
             "s.xml:3: device 'a': subcircuit 'fet_sgd' not found in 'models.lib' (it defines: "
             "fet_sdg, Fet5; did you mean 'fet_sdg'?)");
 }
 
 TEST_F(DeviceModelsTest, PinCountDoesNotMatch) {
-  EXPECT_FALSE(Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"FET5\" pins=\"d g s\"/>\n"));
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"FET5\" pins=\"d g s\"/>\n"));
   EXPECT_EQ(FirstError(), "s.xml:3: device 'a': the pin map has 3 entries but subcircuit 'Fet5' (" +
                               (dir_ / "models.lib").string() + ":6) has 5 pins (d g s ks tj)");
 }
 
 TEST_F(DeviceModelsTest, PinNameNotInTheSubcircuit) {
-  EXPECT_FALSE(Resolve(
-      "<device name=\"a\" file=\"models.lib\" subckt=\"fet5\" pins=\"D=d G=g S=s KS=s TK=25\"/>\n"));
-  EXPECT_EQ(FirstError(), "s.xml:3: device 'a': the pin map names pin 'tk' but subcircuit 'Fet5' (" +
-                              (dir_ / "models.lib").string() +
-                              ":6) has pins (d g s ks tj) (did you mean 'tj'?)");
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet5\" pins=\"D=d G=g S=s KS=s "
+              "TK=25\"/>\n"));
+  EXPECT_EQ(FirstError(),
+            "s.xml:3: device 'a': the pin map names pin 'tk' but subcircuit 'Fet5' (" +
+                (dir_ / "models.lib").string() + ":6) has pins (d g s ks tj) (did you mean 'tj'?)");
 }
 
 TEST_F(DeviceModelsTest, PinLeftFloating) {
-  EXPECT_FALSE(
-      Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet5\" pins=\"D=d G=g S=s KS=s\"/>\n"));
+  EXPECT_FALSE(Resolve(
+      "<device name=\"a\" file=\"models.lib\" subckt=\"fet5\" pins=\"D=d G=g S=s KS=s\"/>\n"));
   EXPECT_EQ(FirstError(), "s.xml:3: device 'a': pin 'tj' of subcircuit 'Fet5' (" +
                               (dir_ / "models.lib").string() +
                               ":6) is left floating; tie it to d, g, s, a node (@name) or a "
@@ -133,7 +138,8 @@ TEST_F(DeviceModelsTest, PinLeftFloating) {
 }
 
 TEST_F(DeviceModelsTest, SwitchNodeLeftFloating) {
-  EXPECT_FALSE(Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet_sdg\" pins=\"s d s\"/>\n"));
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet_sdg\" pins=\"s d s\"/>\n"));
   EXPECT_EQ(FirstError(), "s.xml:3: device 'a': no pin of subcircuit 'fet_sdg' (" +
                               (dir_ / "models.lib").string() +
                               ":2) is tied to the switch's gate (g), which would leave that node "
@@ -141,17 +147,21 @@ TEST_F(DeviceModelsTest, SwitchNodeLeftFloating) {
 }
 
 TEST_F(DeviceModelsTest, BadPinMapSyntaxAndUnknownNamesAreParseErrors) {
-  EXPECT_FALSE(Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet5\" pins=\"D=d G=x\"/>\n"));
-  EXPECT_EQ(FirstError(), "s.xml:3: pin map entry 'G=x': tie a pin to d, g, s (the switch's "
-                          "drain, gate, source), a template node as @name, or a fixed voltage "
-                          "(a number)");
-  EXPECT_FALSE(Resolve("<device name=\"a\" model=\"zsw_linear\"/>\n"
-                       "<axis device=\"leg.high\" values=\"b\"/>\n"));
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet5\" pins=\"D=d G=x\"/>\n"));
+  EXPECT_EQ(FirstError(),
+            "s.xml:3: pin map entry 'G=x': tie a pin to d, g, s (the switch's "
+            "drain, gate, source), a template node as @name, or a fixed voltage "
+            "(a number)");
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" model=\"zsw_linear\"/>\n"
+              "<axis device=\"leg.high\" values=\"b\"/>\n"));
   EXPECT_EQ(FirstError(),
             "s.xml:4: unknown device 'b' (declare it with <device name=\"b\" .../>; did you "
             "mean 'a'?)");
-  EXPECT_FALSE(Resolve("<device name=\"a\" model=\"zsw_linear\"/>\n"
-                       "<axis device=\"leg.middle\" values=\"a\"/>\n"));
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" model=\"zsw_linear\"/>\n"
+              "<axis device=\"leg.middle\" values=\"a\"/>\n"));
   EXPECT_EQ(FirstError(),
             "s.xml:4: bad switch role 'leg.middle' (use CELL.high or CELL.low, e.g. leg.high)");
   EXPECT_FALSE(Resolve("<device name=\"a\" model=\"zsw_junktion\"/>\n"));
@@ -160,25 +170,29 @@ TEST_F(DeviceModelsTest, BadPinMapSyntaxAndUnknownNamesAreParseErrors) {
 }
 
 TEST_F(DeviceModelsTest, RoleMustNameACellOfTheTemplate) {
-  EXPECT_FALSE(Resolve("<device name=\"a\" model=\"zsw_linear\"/>\n"
-                       "<axis device=\"arm.high\" values=\"a\"/>\n"));
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" model=\"zsw_linear\"/>\n"
+              "<axis device=\"arm.high\" values=\"a\"/>\n"));
   EXPECT_EQ(FirstError(), "s.xml:4: switch role 'arm.high': the template has no cell 'arm'");
 }
 
 TEST_F(DeviceModelsTest, RewritesInstancesWithThePinMapAndTies) {
-  ASSERT_TRUE(Resolve(
-      "<device name=\"mine\" file=\"models.lib\" subckt=\"fet_sdg\" pins=\"s d g\" params=\"rg=2\"/>\n"
-      "<device name=\"five\" file=\"models.lib\" subckt=\"fet5\" pins=\"D=d G=g S=s KS=s TJ=25\"/>\n"
-      "<device name=\"jn\" model=\"zsw_junction\" params=\"c0_f=2n\"/>\n"
-      "<axis device=\"leg.high\" values=\"mine jn\"/>\n"
-      "<axis device=\"leg.low\" values=\"five\"/>\n"))
+  ASSERT_TRUE(
+      Resolve("<device name=\"mine\" file=\"models.lib\" subckt=\"fet_sdg\" pins=\"s d g\" "
+              "params=\"rg=2\"/>\n"
+              "<device name=\"five\" file=\"models.lib\" subckt=\"fet5\" pins=\"D=d G=g S=s KS=s "
+              "TJ=25\"/>\n"
+              "<device name=\"jn\" model=\"zsw_junction\" params=\"c0_f=2n\"/>\n"
+              "<axis device=\"leg.high\" values=\"mine jn\"/>\n"
+              "<axis device=\"leg.low\" values=\"five\"/>\n"))
       << FirstError();
-  std::string netlist = "title\nxhs in gh sw zsw_linear ron_ohm=10m vds0_v={Vin}\n"
-                        "xls sw gl 0 zsw_linear ron_ohm=10m vds0_v=0\n.end\n";
+  std::string netlist =
+      "title\nxhs in gh sw zsw_linear ron_ohm=10m vds0_v={Vin}\n"
+      "xls sw gl 0 zsw_linear ron_ohm=10m vds0_v=0\n.end\n";
   std::string error;
   std::string a = netlist;
-  ASSERT_TRUE(ApplyDevices(tmpl_, devices_, {{"leg.high", "mine"}, {"leg.low", "five"}}, &a,
-                           &error))
+  ASSERT_TRUE(
+      ApplyDevices(tmpl_, devices_, {{"leg.high", "mine"}, {"leg.low", "five"}}, &a, &error))
       << error;
   std::string lib = (dir_ / "models.lib").string();
   EXPECT_EQ(a, "title\n* zvsmap switch models\n.include \"" + lib +

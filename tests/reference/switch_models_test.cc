@@ -80,10 +80,13 @@ TEST_F(SwitchModelsTest, JunctionChargeAndEnergyMatchTheClosedForms) {
     ASSERT_EQ(table.coss.size(), 4u);
     for (const CossRow& row : table.coss) {
       double q = JunctionQ(c.c0, c.vj, c.m, row.v_v), e = JunctionE(c.c0, c.vj, c.m, row.v_v);
-      EXPECT_NEAR(row.q_c, q, 0.01 * q) << params << " at " << row.v_v << " V";  // REFERENCES sec. 6
-      EXPECT_NEAR(row.e_j, e, 0.01 * e) << params << " at " << row.v_v << " V";  // REFERENCES sec. 6
+      EXPECT_NEAR(row.q_c, q, 0.01 * q)
+          << params << " at " << row.v_v << " V";  // REFERENCES sec. 6
+      EXPECT_NEAR(row.e_j, e, 0.01 * e)
+          << params << " at " << row.v_v << " V";  // REFERENCES sec. 6
       double cv = c.c0 / std::pow(1 + row.v_v / c.vj, c.m);
-      EXPECT_NEAR(row.c_f, cv, 0.01 * cv) << params << " at " << row.v_v << " V";  // the form itself
+      EXPECT_NEAR(row.c_f, cv, 0.01 * cv)
+          << params << " at " << row.v_v << " V";  // the form itself
       // Datasheet conventions Co(tr) = Q/V, Co(er) = 2E/V^2 (REFERENCES sec. 6).
       EXPECT_NEAR(row.co_tr_f, q / row.v_v, 0.01 * q / row.v_v);
       EXPECT_NEAR(row.co_er_f, 2 * e / (row.v_v * row.v_v), 0.01 * 2 * e / (row.v_v * row.v_v));
