@@ -2,6 +2,8 @@
 
 #include <gtest/gtest.h>
 
+#include <cstdlib>
+
 namespace zvsmap {
 namespace {
 
@@ -97,10 +99,15 @@ TEST_F(SpiceNumberTest, MilIsRefused) {
 }
 
 TEST_F(SpiceNumberTest, FormatNumberReadsBack) {
-  // %.12g, ISO C printf (from memory).
+  // %.Ng of ISO C printf (from memory): short where 12 digits read back
+  // exactly, 17 digits where they do not (0.1 + 0.2 is not 0.3 in binary64,
+  // IEEE 754-2008).
   EXPECT_EQ(FormatNumber(48), "48");
   EXPECT_EQ(FormatNumber(2.2e-6), "2.2e-06");
-  EXPECT_EQ(FormatNumber(0.1 + 0.2), "0.3");
+  EXPECT_EQ(FormatNumber(0.1 + 0.2), "0.30000000000000004");
+  for (double x : {1.0 / 3.0, 2.0 / 3.0e5, 6.02214076e23, 1e-300, -4.9e-7}) {
+    EXPECT_EQ(std::strtod(FormatNumber(x).c_str(), nullptr), x) << FormatNumber(x);
+  }
 }
 
 TEST_F(SpiceNumberTest, FormatEngineeringUsesSpiceFactors) {

@@ -36,7 +36,7 @@ std::string JunctionTemplate() {
     if (at == std::string::npos) throw Error("template changed: no '" + from + "'");
     s.replace(at, from.size(), to);
   };
-  replace("*@ period 1/fsw\n", "*@ period 1/fsw\n*@ model buck c0=c0 vj=vj mj=mj\n");
+  replace("*@ model buck\n", "*@ model buck c0=c0 vj=vj mj=mj\n");
   replace(".param Coss=1n\n", ".param Coss=1n C0=4n Vj=0.7 Mj=0.5\n");
   for (const std::string& head : {std::string("xhs in gh sw"), std::string("xls sw gl 0")}) {
     size_t at = s.find(head);
