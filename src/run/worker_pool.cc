@@ -218,7 +218,10 @@ void WorkerPool::WorkerMain(int fd) {
     if (kind == Fault::kHang) {
       for (;;) pause();
     }
-    if (kind == Fault::kSegv) raise(SIGSEGV);
+    if (kind == Fault::kSegv) {
+      signal(SIGSEGV, SIG_DFL);  // die by the signal even under a sanitizer's handler
+      raise(SIGSEGV);
+    }
     PointResult result;
     if (kind == Fault::kExitCallback) {
       result.index = static_cast<size_t>(index);
