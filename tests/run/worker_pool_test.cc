@@ -97,7 +97,7 @@ TEST(WorkerPoolTest, FaultSwitchHangCrashAndExitCallbackFailOnlyTheirPoints) {
 
 TEST(WorkerPoolTest, WorkerKilledFromOutsideIsReplacedAndItsPointReported) {
   WorkerPoolOptions options;
-  options.jobs = 2;
+  options.jobs = 1;  // one worker: points 3-7 can only run on its replacement
   options.on_dispatch = [](size_t index, pid_t pid) {
     if (index == 2) kill(pid, SIGKILL);
   };
@@ -111,7 +111,7 @@ TEST(WorkerPoolTest, WorkerKilledFromOutsideIsReplacedAndItsPointReported) {
   ASSERT_EQ(results.size(), 8u);
   EXPECT_EQ(results[2].reason, "crash (signal 9)");  // SIGKILL is 9 (POSIX)
   for (size_t i : {0, 1, 3, 4, 5, 6, 7}) EXPECT_EQ(results[i].status, PointStatus::kOk);
-  EXPECT_GE(outcome.workers_started, 3u);
+  EXPECT_EQ(outcome.workers_started, 2u);
 }
 
 TEST(WorkerPoolTest, WorkersAreRecycledAfterTheSetNumberOfPoints) {
