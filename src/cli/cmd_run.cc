@@ -10,17 +10,20 @@
 #include <cstdlib>
 #include <filesystem>
 #include <map>
+#include <optional>
 
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
-#include "report/report_set.h"
+#include "cli/run_summary.h"
 #include "run/point_evaluator.h"
 #include "run/progress.h"
+#include "run/run_plan.h"
 #include "run/sweep_setup.h"
 #include "run/worker_pool.h"
 #include "sim/ngspice_simulator.h"
 #include "store/content_hash.h"
 #include "store/run_store.h"
+#include "sweep/sharding.h"
 
 namespace zvsmap::cli {
 namespace {
@@ -48,6 +51,8 @@ struct Options {
   size_t recycle = 200;
   bool rerun = false;
   bool no_retry_failed = false;
+  std::string shard;
+  size_t shards = 0;
 };
 
 int Run(const Options& opts) {
@@ -80,35 +85,62 @@ int Run(const Options& opts) {
     return kExitBadInput;
   }
 
+  // Which points this process runs: all, or one shard's.
+  std::vector<size_t> mine;
+  std::string shard_text;
+  {
+    std::optional<ShardSpec> shard;
+    if (!opts.shard.empty()) {
+      ShardSpec parsed;
+      if (!ParseShard(opts.shard, &parsed, &error)) {
+        std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+        return kExitBadInput;
+      }
+      shard = parsed;
+    } else if (!ShardFromEnvironment([](const char* name) { return std::getenv(name); },
+                                     opts.shards, &shard, &error)) {
+      std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+      return kExitBadInput;
+    }
+    if (shard) {
+      mine = ShardPointIndices(sweep.points.size(), *shard);
+      shard_text = shard->Describe();
+      if (!opts.quiet) {
+        std::fprintf(stderr, "zvsmap: shard %s (from %s): %zu of %zu points\n",
+                     shard_text.c_str(), shard->source.c_str(), mine.size(),
+                     sweep.points.size());
+      }
+    } else {
+      for (size_t i = 0; i < sweep.points.size(); ++i) mine.push_back(i);
+    }
+  }
+
   // Which points must run: those without a stored result for the same content.
   PointEvaluator evaluator(sweep.spec, sweep.tmpl);
-  std::vector<std::string> hashes(sweep.points.size());
-  for (size_t i = 0; i < sweep.points.size(); ++i) {
-    std::string netlist;
-    Diagnostic render_error;
-    if (!evaluator.Render(sweep.points[i], &netlist, &render_error)) {
-      netlist = "render error: " + render_error.Format();
-    }
-    hashes[i] = PointContentHash(netlist, sweep.spec, sweep.tmpl);
-  }
+  std::vector<std::string> hashes = PointContentHashes(sweep, evaluator);
   std::vector<StoredPointKey> stored;
   if (!store->ListPoints(&stored, &error)) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitInternal;
   }
   std::vector<bool> keep(sweep.points.size(), false);
-  size_t kept = 0, kept_failed = 0;
+  std::vector<bool> keep_failed(sweep.points.size(), false);
   for (const auto& s : stored) {
     if (s.index >= sweep.points.size() || s.content_hash != hashes[s.index] || opts.rerun) continue;
     if (s.status == PointStatus::kOk || opts.no_retry_failed) {
       keep[s.index] = true;
-      ++kept;
-      kept_failed += s.status == PointStatus::kOk ? 0 : 1;
+      keep_failed[s.index] = s.status != PointStatus::kOk;
     }
   }
   std::vector<size_t> to_run;
-  for (size_t i = 0; i < sweep.points.size(); ++i) {
-    if (!keep[i]) to_run.push_back(i);
+  size_t kept = 0, kept_failed = 0;
+  for (size_t i : mine) {
+    if (!keep[i]) {
+      to_run.push_back(i);
+    } else {
+      ++kept;
+      kept_failed += keep_failed[i] ? 1 : 0;
+    }
   }
   std::string identity = SweepIdentity(sweep.spec.path, sweep.spec.template_path);
   std::string old_identity = store->GetMeta("sweep_identity");
@@ -125,7 +157,7 @@ int Run(const Options& opts) {
   }
   if (!opts.quiet && kept > 0) {
     std::fprintf(stderr, "zvsmap: %zu of %zu points kept from the stored run, %zu to run\n", kept,
-                 sweep.points.size(), to_run.size());
+                 mine.size(), to_run.size());
   }
 
   // Run the rest in worker processes.
@@ -146,7 +178,7 @@ int Run(const Options& opts) {
           return evaluator.Evaluate(sweep.points[index], simulator);
         },
         [] { return std::make_unique<NgspiceSimulator>(); }, pool_options);
-    ProgressReporter progress(stderr, mode, sweep.points.size(), kept, kept_failed);
+    ProgressReporter progress(stderr, mode, mine.size(), kept, kept_failed);
     g_stop = 0;
     InstallStopHandlers();
     PoolOutcome outcome = pool.Run(
@@ -173,57 +205,15 @@ int Run(const Options& opts) {
   }
 
   // Reports come from the store, ordered by point index.
-  std::map<size_t, PointResult> loaded;
-  if (!store->LoadResults(&loaded, &error)) {
+  std::vector<PointResult> results;
+  if (!CollectStoredResults(*store, hashes, &results, &error)) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitInternal;
   }
-  std::vector<StoredPointKey> now_stored;
-  store->ListPoints(&now_stored, &error);
-  std::vector<PointResult> results(sweep.points.size());
-  size_t ok = 0, failed = 0, unsettled = 0, not_run = 0;
-  for (size_t i = 0; i < results.size(); ++i) {
-    results[i].index = i;
-    results[i].reason = "not run";
-  }
-  for (const auto& s : now_stored) {
-    if (s.index >= results.size() || s.content_hash != hashes[s.index]) continue;
-    auto it = loaded.find(s.index);
-    if (it != loaded.end()) results[s.index] = std::move(it->second);
-  }
-  for (const auto& r : results) {
-    if (r.status == PointStatus::kOk) {
-      ++ok;
-    } else if (r.status == PointStatus::kUnsettled) {
-      ++unsettled;
-    } else if (r.reason == "not run") {
-      ++not_run;
-    } else {
-      ++failed;
-    }
-  }
-
-  ReportOutcome report;
-  if (!WriteReports({sweep.spec, sweep.tmpl, sweep.points, results}, opts.out_dir, &report,
-                    &error)) {
-    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
-    return kExitInternal;
-  }
-  double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
-  std::fprintf(stderr, "zvsmap: %zu points: %zu ok, %zu failed, %zu unsettled", results.size(), ok,
-               failed, unsettled);
-  if (not_run > 0) std::fprintf(stderr, ", %zu not run", not_run);
-  std::fprintf(stderr, " (%zu kept from the stored run); wall time %s\n", kept,
-               FormatDuration(wall).c_str());
-  for (const auto& f : report.files) std::fprintf(stderr, "zvsmap: wrote %s\n", f.c_str());
-  std::fprintf(stderr, "zvsmap: run store %s\n", store_path.c_str());
-  if (interrupted) {
-    std::fprintf(stderr, "zvsmap: interrupted; run the same command again to resume\n");
-    return kExitInterrupted;
-  }
-  if (failed + unsettled + not_run > 0) return kExitPointsFailed;
-  if (report.requirements_failed > 0) return kExitRequirementFailed;
-  return kExitOk;
+  double wall_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
+  RunSummaryInput summary{sweep,      mine, results, opts.out_dir, store_path,
+                          shard_text, kept, wall_s,  interrupted};
+  return WriteReportsAndSummarize(summary);
 }
 
 }  // namespace
@@ -247,6 +237,11 @@ void AddRunCommand(CLI::App& app, int* exit_code) {
   cmd->add_flag("--rerun", opts->rerun, "Run every point again, ignoring stored results");
   cmd->add_flag("--no-retry-failed", opts->no_retry_failed,
                 "Keep stored failed and unsettled points instead of running them again");
+  cmd->add_option("--shard", opts->shard,
+                  "Run only shard K of N (K/N, 0-based); default: from a Slurm job array "
+                  "(SLURM_ARRAY_TASK_*) or JOB_COMPLETION_INDEX with --shards");
+  cmd->add_option("--shards", opts->shards,
+                  "Number of shards when the index comes from JOB_COMPLETION_INDEX");
   cmd->callback([opts, exit_code] { *exit_code = Run(*opts); });
 }
 

@@ -10,6 +10,8 @@ namespace zvsmap::cli {
 
 /// Adds `zvsmap run`; `*exit_code` receives the command's exit status.
 void AddRunCommand(CLI::App& app, int* exit_code);
+/// Adds `zvsmap merge` (join shard stores and write the reports).
+void AddMergeCommand(CLI::App& app, int* exit_code);
 /// Adds `zvsmap render` (print one point's netlist).
 void AddRenderCommand(CLI::App& app, int* exit_code);
 /// Adds `zvsmap points` (list the expanded points).

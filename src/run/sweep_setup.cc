@@ -1,5 +1,6 @@
 #include "run/sweep_setup.h"
 
+#include "handcalc/hand_calculation.h"
 #include "sweep/sweep_expand.h"
 #include "sweep/sweep_parser.h"
 
@@ -25,6 +26,13 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
   if (!ResolveSweepDevices(out->spec, out->tmpl, &out->devices, errors)) return false;
   if (!ExpandSweep(out->spec, &out->points, &error)) {
     errors->push_back(error);
+    return false;
+  }
+  // Hand-calculation models and <predict> formulas are checked before any
+  // simulation, so a typo does not surface as a note on every point.
+  std::vector<Diagnostic> predictions = CheckPredictions(out->spec, out->tmpl, out->points);
+  if (!predictions.empty()) {
+    errors->insert(errors->end(), predictions.begin(), predictions.end());
     return false;
   }
   return true;
