@@ -295,6 +295,12 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
   for (const auto& c : out->cells) {
     if (!require_param(c.high_dead, c.where, "cell '" + c.name + "' high_dead")) return false;
     if (!require_param(c.low_dead, c.where, "cell '" + c.name + "' low_dead")) return false;
+    const std::pair<const char*, const std::string*> named[] = {
+        {"high_vth", &c.high_vth}, {"low_vth", &c.low_vth}, {"inductance", &c.inductance},
+        {"coss", &c.coss}};
+    for (const auto& [key, name] : named) {
+      if (!require_param(*name, c.where, "cell '" + c.name + "' " + key)) return false;
+    }
   }
   for (const auto& s : out->states) {
     if (!require_param(s.init_param, s.where, "state '" + s.vector + "'")) return false;
@@ -314,9 +320,3 @@ bool LoadTemplate(const std::string& path, Template* out, Diagnostic* error) {
 }
 
 }  // namespace zvsmap
-    const std::pair<const char*, const std::string*> named[] = {
-        {"high_vth", &c.high_vth}, {"low_vth", &c.low_vth}, {"inductance", &c.inductance},
-        {"coss", &c.coss}};
-    for (const auto& [key, name] : named) {
-      if (!require_param(*name, c.where, "cell '" + c.name + "' " + key)) return false;
-    }
