@@ -11,7 +11,8 @@
 // from the first period boundary after which every boundary of its run (up to
 // MAX_PERIODS) stays within the same band_i of zvsmap's settled state, plus
 // the measured periods (as zvsmap's count includes them). Its wall time is the
-// long run's time prorated to those periods. The "agree" column is the
+// runs' time prorated to those periods (brute force runs in chunks, see
+// BruteForce). The "agree" column is the
 // distance between brute force's last boundary and zvsmap's state in units of
 // the band (<= 1: the two answers agree to the tolerance; a brute-force run
 // still moving at its end shows > 1 and ">MAX"). Usage:
@@ -43,42 +44,80 @@ struct Brute {
   std::string error;
 };
 
+// Brute force from `start`: MAX_PERIODS periods in runs of kChunk periods,
+// each run starting from the slow states at the previous run's last boundary
+// (the fast states restart from the template's initial conditions, as in
+// zvsmap's own runs). One long run is no better: ngspice stops now and then
+// with "Timestep too small" somewhere in a run of hundreds of periods, and a
+// chunk that does can be retried from a state nudged within the floors
+// (RunFromState).
+constexpr int kChunk = 50;
+
 Brute BruteForce(Simulator& sim, const PreparedSweep& s, const Point& p,
                  const std::vector<std::pair<std::string, double>>& start,
                  const std::vector<double>& settled, const std::vector<double>& band,
                  int max_periods, int measured) {
   Brute b;
-  std::vector<ParamValue> values = p.values;
-  for (const auto& [name, v] : start) values.push_back({name, v});
   Variables resolved;
   Diagnostic error;
   double period = 0;
-  if (!ResolveParams(s.tmpl, values, &resolved, &error) ||
+  if (!ResolveParams(s.tmpl, p.values, &resolved, &error) ||
       !ResolvePeriod(s.tmpl, resolved, &period, &error)) {
     b.error = error.Format();
     return b;
   }
   PointEvaluator ev(s.spec, s.tmpl);
-  TranSettings tran = ev.TranFor(resolved, period);
-  tran.tstart_s = 0;
-  tran.tstop_s = (max_periods + kPeriodOverrun) * period;
   std::vector<std::string> vectors;
-  for (const auto& st : s.tmpl.states) vectors.push_back(st.vector);
-  auto t0 = std::chrono::steady_clock::now();
-  SimulationOutput o =
-      sim.Run(RenderNetlist(s.tmpl, resolved, tran, vectors), vectors, tran.tstop_s);
-  double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
-  if (!o.ok) {
-    b.error = o.error;
-    return b;
+  std::vector<SlowState> states;
+  std::vector<double> x;
+  for (size_t i = 0; i < s.tmpl.states.size(); ++i) {
+    vectors.push_back(s.tmpl.states[i].vector);
+    states.push_back({s.tmpl.states[i].vector, start[i].second,
+                      SlowStateFloor(s.tmpl.states[i].vector)});
+    x.push_back(start[i].second);
   }
+  PeriodRenderer render = [&](const std::vector<double>& at, int periods, std::string* netlist,
+                              std::string* why) {
+    std::vector<ParamValue> values = p.values;
+    for (size_t i = 0; i < at.size(); ++i) values.push_back({start[i].first, at[i]});
+    Variables r;
+    Diagnostic d;
+    if (!ResolveParams(s.tmpl, values, &r, &d)) {
+      *why = d.Format();
+      return false;
+    }
+    TranSettings tran = ev.TranFor(r, period);
+    tran.tstart_s = 0;
+    tran.tstop_s = (periods + kPeriodOverrun) * period;
+    *netlist = RenderNetlist(s.tmpl, r, tran, vectors);
+    return true;
+  };
+  const size_t n = vectors.size();
+  std::vector<std::vector<double>> boundary;  // [k-1][state]
+  auto t0 = std::chrono::steady_clock::now();
+  for (int done = 0; done < max_periods; done += kChunk) {
+    int chunk = std::min(kChunk, max_periods - done);
+    std::string why;
+    SimulationOutput o = RunFromState(sim, render, vectors, states, period, chunk, -1, &x, &why);
+    if (!o.ok) {
+      b.error = why.empty() ? o.error : why;
+      b.error += " (in periods " + std::to_string(done) + "-" + std::to_string(done + chunk) + ")";
+      return b;
+    }
+    for (int k = 1; k <= chunk; ++k) {
+      std::vector<double> at(n);
+      for (size_t i = 0; i < n; ++i) at[i] = o.waves.At(vectors[i], k * period);
+      boundary.push_back(at);
+    }
+    x = boundary.back();
+  }
+  double wall = std::chrono::duration<double>(std::chrono::steady_clock::now() - t0).count();
   b.ok = true;
-  size_t n = vectors.size();
   int last_bad = 0;
   for (int k = 1; k <= max_periods; ++k) {
     double worst = 0;
     for (size_t i = 0; i < n; ++i) {
-      worst = std::max(worst, std::fabs(o.waves.At(vectors[i], k * period) - settled[i]) / band[i]);
+      worst = std::max(worst, std::fabs(boundary[k - 1][i] - settled[i]) / band[i]);
     }
     if (worst > 1) last_bad = k;
     if (k == max_periods) b.agree = worst;
@@ -186,6 +225,12 @@ int main(int argc, char** argv) {
     std::printf("%-5zu %-30s | %-22s | %-8.1e | %-22s | %-22s | %-8s %-8s\n", p.index,
                 label.c_str(), zbuf, r.settle.residual, cell(bz).c_str(), cell(bi).c_str(),
                 ratio(bz).c_str(), ratio(bi).c_str());
+    for (const Brute* b : {&bz, &bi}) {
+      if (!b->ok) {
+        std::string e = b->error.substr(0, b->error.find('\n'));
+        std::printf("      %s brute force failed: %s\n", b == &bz ? "zero" : "init", e.c_str());
+      }
+    }
     std::fflush(stdout);
     z_periods.push_back(r.settle.periods);
     z_wall.push_back(r.wall_s);
