@@ -3,6 +3,7 @@
 
 #include <stdexcept>
 #include <string>
+#include <utility>
 
 namespace zvsmap {
 
@@ -16,6 +17,14 @@ struct SourceLocation {
 /// An expected failure (bad input, rejected netlist, ...), reported to the user
 /// as `file:line: message`, optionally followed by the offending line and a caret.
 struct Diagnostic {
+  Diagnostic() = default;
+  /// (A constructor rather than aggregate initialisation: GCC 12 at -O2 and
+  /// above warns "may be used uninitialized" on the aggregate form.)
+  Diagnostic(SourceLocation where_in, std::string message_in, std::string source_line_in = {})
+      : where(std::move(where_in)),
+        message(std::move(message_in)),
+        source_line(std::move(source_line_in)) {}
+
   SourceLocation where;
   std::string message;
   std::string source_line;  ///< the text of the line, if known (shown with a caret)

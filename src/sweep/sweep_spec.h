@@ -58,8 +58,9 @@ struct SimulationSettings {
   double timeout_s = 0;         ///< per-point wall-clock limit; 0 = derived
   /// Settling: "shooting" (Newton on the template's slow states, falling back
   /// to period by period) or "periods" (period by period only, in runs of
-  /// settle_periods, stopping when 3 periods in a row change by less than the
-  /// tolerance).
+  /// settle_periods, stopping when the last 20 period-boundary states lie
+  /// within the tolerance of the latest one and the geometric-decay estimate of
+  /// the remaining distance is within it too; see sim/steady_state.h).
   std::string settle_method = "shooting";
   double settle_tolerance = 1e-3;  ///< relative to each state's ripple (floors 1 mA / 1 mV)
   int max_newton = 8;              ///< Newton iterations before falling back
