@@ -35,10 +35,10 @@ class HandCalculationTest : public ::testing::Test {
   }
   // Writes a sweep file whose <predict> elements (`body`) start on line 3.
   bool Load(const std::string& body) {
-    path_ = ::testing::TempDir() + "handcalc_test.xml";
-    std::ofstream(path_) << "<sweep>\n  <template file=\"buck.cir\"/>\n" << body << "</sweep>\n";
-    std::ifstream in(path_);
-    std::string text((std::istreambuf_iterator<char>(in)), std::istreambuf_iterator<char>());
+    // Parsed from memory (ParseSweepText does not open the template), so
+    // tests running in parallel share no file.
+    path_ = "sweeps/handcalc_test.xml";
+    std::string text = "<sweep>\n  <template file=\"buck.cir\"/>\n" + body + "</sweep>\n";
     Diagnostic error;
     bool ok = ParseSweepText(text, path_, &spec_, &error);
     EXPECT_TRUE(ok) << error.Format();
