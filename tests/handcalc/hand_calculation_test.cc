@@ -4,6 +4,7 @@
 #include "handcalc/hand_calculation.h"
 
 #include <gtest/gtest.h>
+#include <unistd.h>
 
 #include <cmath>
 #include <cstdio>
@@ -35,10 +36,11 @@ class HandCalculationTest : public ::testing::Test {
   }
   // Writes a sweep file whose <predict> elements (`body`) start on line 3.
   bool Load(const std::string& body) {
-    // Parsed from memory (ParseSweepText does not open the template), so
-    // tests running in parallel share no file.
-    path_ = "sweeps/handcalc_test.xml";
+    // One file per test process: CTest runs these tests in parallel. (The
+    // file is read back to show the offending line under a message.)
+    path_ = ::testing::TempDir() + "handcalc_test_" + std::to_string(getpid()) + ".xml";
     std::string text = "<sweep>\n  <template file=\"buck.cir\"/>\n" + body + "</sweep>\n";
+    std::ofstream(path_) << text;
     Diagnostic error;
     bool ok = ParseSweepText(text, path_, &spec_, &error);
     EXPECT_TRUE(ok) << error.Format();
