@@ -12,6 +12,8 @@ namespace zvsmap::cli {
 void AddRunCommand(CLI::App& app, int* exit_code);
 /// Adds `zvsmap merge` (join shard stores and write the reports).
 void AddMergeCommand(CLI::App& app, int* exit_code);
+/// Adds `zvsmap waveforms` (chosen points' settled waveforms as raw files and edge plots).
+void AddWaveformsCommand(CLI::App& app, int* exit_code);
 /// Adds `zvsmap render` (print one point's netlist).
 void AddRenderCommand(CLI::App& app, int* exit_code);
 /// Adds `zvsmap points` (list the expanded points).

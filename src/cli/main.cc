@@ -18,6 +18,7 @@ int main(int argc, char** argv) {
   int exit_code = zvsmap::kExitOk;
   zvsmap::cli::AddRunCommand(app, &exit_code);
   zvsmap::cli::AddMergeCommand(app, &exit_code);
+  zvsmap::cli::AddWaveformsCommand(app, &exit_code);
   zvsmap::cli::AddRenderCommand(app, &exit_code);
   zvsmap::cli::AddPointsCommand(app, &exit_code);
   zvsmap::cli::AddExplainCommand(app, &exit_code);

@@ -1,0 +1,187 @@
+#include "report/waveform_plot.h"
+
+#include <algorithm>
+#include <cmath>
+#include <limits>
+#include <utility>
+#include <vector>
+
+#include "core/spice_number.h"
+#include "report/svg_canvas.h"
+
+namespace zvsmap {
+
+namespace {
+
+constexpr double kWidth = 820, kLeft = 90, kRight = 170, kTop = 50, kPanel = 170, kGap = 34,
+                 kBottom = 56;
+
+struct Trace {
+  std::string label;
+  std::string colour;
+  std::vector<double> y;  // on the window's time samples
+  bool dashed = false;
+};
+
+bool IsGround(const std::string& node) { return node == "0" || node == "gnd"; }
+
+// A node voltage on the window's samples; false when the data lack it.
+bool NodeVoltage(const Waveforms& w, const std::string& node, std::vector<double>* out) {
+  if (node.empty()) return false;
+  if (IsGround(node)) {
+    out->assign(w.time().size(), 0.0);
+    return true;
+  }
+  std::string name = "v(" + node + ")";
+  if (!w.Has(name)) return false;
+  *out = w.Get(name);
+  return true;
+}
+
+bool Difference(const Waveforms& w, const std::string& plus, const std::string& minus,
+                std::vector<double>* out) {
+  std::vector<double> a, b;
+  if (!NodeVoltage(w, plus, &a)) return false;
+  if (minus.empty() || !NodeVoltage(w, minus, &b)) b.assign(a.size(), 0.0);
+  out->resize(a.size());
+  for (size_t i = 0; i < a.size(); ++i) (*out)[i] = a[i] - b[i];
+  return true;
+}
+
+std::string Eng(double v) { return FormatEngineering(v, 3); }
+
+void DrawPanel(SvgCanvas& svg, double top, const std::vector<double>& t_ns, double x_lo,
+               double x_hi, const std::vector<Trace>& traces, const std::string& y_label,
+               const std::vector<std::pair<double, std::string>>& markers_ns) {
+  double plot_w = kWidth - kLeft - kRight;
+  double y_lo = std::numeric_limits<double>::infinity(), y_hi = -y_lo;
+  for (const Trace& tr : traces) {
+    for (double v : tr.y) {
+      if (!std::isfinite(v)) continue;
+      y_lo = std::min(y_lo, v);
+      y_hi = std::max(y_hi, v);
+    }
+  }
+  if (!std::isfinite(y_lo)) y_lo = 0, y_hi = 1;
+  if (y_hi - y_lo <= 0) {
+    double pad = y_lo == 0 ? 1 : std::fabs(y_lo) * 0.1;
+    y_lo -= pad;
+    y_hi += pad;
+  }
+  double pad = (y_hi - y_lo) * 0.08;
+  y_lo -= pad;
+  y_hi += pad;
+  auto px = [&](double x) { return kLeft + (x - x_lo) / (x_hi - x_lo) * plot_w; };
+  auto py = [&](double v) { return top + (y_hi - v) / (y_hi - y_lo) * kPanel; };
+
+  svg.Line(kLeft, top + kPanel, kLeft + plot_w, top + kPanel, "#000000", 1);
+  svg.Line(kLeft, top, kLeft, top + kPanel, "#000000", 1);
+  for (int k = 0; k <= 4; ++k) {
+    double v = y_lo + (y_hi - y_lo) * k / 4;
+    svg.Line(kLeft, py(v), kLeft + plot_w, py(v), "#e6e6e6", 1);
+    svg.Text(kLeft - 6, py(v) + 4, Eng(v), "end", 11);
+  }
+  for (int k = 0; k <= 6; ++k) {
+    double x = x_lo + (x_hi - x_lo) * k / 6;
+    svg.Line(px(x), top + kPanel, px(x), top + kPanel + 4, "#000000", 1);
+    svg.Text(px(x), top + kPanel + 16, Eng(x), "middle", 10);
+  }
+  if (y_lo < 0 && y_hi > 0) svg.Line(kLeft, py(0), kLeft + plot_w, py(0), "#999999", 1, true);
+  for (const auto& [x, label] : markers_ns) {
+    svg.Line(px(x), top, px(x), top + kPanel, "#D55E00", 1, true);
+    svg.Text(px(x) + 3, top + 11, label, "start", 10);
+  }
+  svg.Text(28, top + kPanel / 2, y_label, "middle", 12, -90);
+
+  double ly = top + 14;
+  for (const Trace& tr : traces) {
+    std::vector<std::pair<double, double>> pts;
+    for (size_t i = 0; i < t_ns.size() && i < tr.y.size(); ++i) {
+      if (std::isfinite(tr.y[i])) pts.emplace_back(px(t_ns[i]), py(tr.y[i]));
+    }
+    svg.Polyline(pts, tr.colour, tr.dashed ? 1 : 2, tr.dashed);
+    double lx = kWidth - kRight + 14;
+    svg.Line(lx, ly - 4, lx + 18, ly - 4, tr.colour, 2, tr.dashed);
+    svg.Text(lx + 24, ly, tr.label, "start", 11);
+    ly += 18;
+  }
+}
+
+}  // namespace
+
+void EdgePlotWindow(const Waveforms& waves, const EdgeTiming& timing, double* t0_s,
+                    double* t1_s) {
+  const std::vector<double>& t = waves.time();
+  double span = t.empty() ? 0 : t.back() - t.front();
+  double dead = std::max(timing.t_on_s - timing.t_off_s, 0.0);
+  double before = std::max(0.5 * dead, 0.02 * span);
+  double after = std::max(1.5 * dead, 0.02 * span);
+  *t0_s = timing.t_off_s - before;
+  *t1_s = timing.t_on_s + after;
+  if (timing.t_end_s > timing.t_on_s) *t1_s = std::min(*t1_s, timing.t_end_s);
+  if (!t.empty()) {
+    *t0_s = std::max(*t0_s, t.front());
+    *t1_s = std::min(*t1_s, t.back());
+  }
+  if (*t1_s < *t0_s) *t1_s = *t0_s;
+}
+
+Plot EdgeWaveformPlot(const Waveforms& waves, const CellSpec& cell, const EdgeTiming& timing,
+                      const std::string& title, const std::string& file) {
+  double t0 = 0, t1 = 0;
+  EdgePlotWindow(waves, timing, &t0, &t1);
+  Waveforms w = waves.Window(t0, t1);
+  std::vector<double> t_ns;
+  for (double t : w.time()) t_ns.push_back((t - timing.t_off_s) * 1e9);
+  double x_lo = (t0 - timing.t_off_s) * 1e9, x_hi = (t1 - timing.t_off_s) * 1e9;
+  if (x_hi <= x_lo) x_hi = x_lo + 1;
+
+  std::vector<Trace> node, gates, current;
+  std::vector<double> y;
+  if (NodeVoltage(w, cell.node, &y)) node.push_back({"v(" + cell.node + ")", "#0072B2", y});
+  if (!IsGround(cell.rail_high) && NodeVoltage(w, cell.rail_high, &y)) {
+    node.push_back({"v(" + cell.rail_high + ")", "#777777", y, true});
+  }
+  if (!IsGround(cell.rail_low) && NodeVoltage(w, cell.rail_low, &y)) {
+    node.push_back({"v(" + cell.rail_low + ")", "#777777", y, true});
+  }
+  std::string gate_label = "gate-source (V)";
+  bool have_gates = false;
+  if (!cell.high_gate.empty() && Difference(w, cell.high_gate, cell.high_source, &y)) {
+    gates.push_back({"v_gs " + cell.high, "#009E73", y});
+    have_gates = true;
+  }
+  if (!cell.low_gate.empty() && Difference(w, cell.low_gate, cell.low_source, &y)) {
+    gates.push_back({"v_gs " + cell.low, "#CC79A7", y});
+    have_gates = true;
+  }
+  if (!have_gates) {
+    gate_label = "command (V)";
+    if (NodeVoltage(w, cell.high_cmd, &y)) gates.push_back({"cmd " + cell.high, "#009E73", y});
+    if (NodeVoltage(w, cell.low_cmd, &y)) gates.push_back({"cmd " + cell.low, "#CC79A7", y});
+  }
+  std::string i_name = "i(" + cell.current + ")";
+  if (w.Has(i_name)) current.push_back({i_name, "#E69F00", w.Get(i_name)});
+
+  std::vector<std::pair<double, std::string>> markers = {
+      {0.0, "off"}, {(timing.t_on_s - timing.t_off_s) * 1e9, "on"}};
+  double height = kTop + 3 * kPanel + 2 * kGap + kBottom;
+  SvgCanvas svg(kWidth, height, title);
+  svg.Text(kWidth / 2, 26, title, "middle", 14);
+  double top = kTop;
+  DrawPanel(svg, top, t_ns, x_lo, x_hi, node, "switch node (V)", markers);
+  top += kPanel + kGap;
+  DrawPanel(svg, top, t_ns, x_lo, x_hi, gates, gate_label, markers);
+  top += kPanel + kGap;
+  DrawPanel(svg, top, t_ns, x_lo, x_hi, current, "commutated current (A)", markers);
+  svg.Text(kLeft + (kWidth - kLeft - kRight) / 2, height - 14,
+           "time from the turn-off command (ns)", "middle", 12);
+
+  Plot plot;
+  plot.file = file;
+  plot.caption = title;
+  plot.svg = svg.ToString();
+  return plot;
+}
+
+}  // namespace zvsmap
