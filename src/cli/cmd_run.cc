@@ -12,6 +12,7 @@
 #include <map>
 #include <optional>
 
+#include "cli/cmd_waveforms.h"
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
 #include "cli/run_summary.h"
@@ -19,6 +20,7 @@
 #include "run/progress.h"
 #include "run/run_plan.h"
 #include "run/sweep_setup.h"
+#include "run/waveform_export.h"
 #include "run/worker_pool.h"
 #include "sim/ngspice_simulator.h"
 #include "store/content_hash.h"
@@ -53,15 +55,34 @@ struct Options {
   bool no_retry_failed = false;
   std::string shard;
   size_t shards = 0;
+  std::string waveforms;  ///< "worst" and/or point indices, comma-separated; "" = none
 };
 
 int Run(const Options& opts) {
   auto started = std::chrono::steady_clock::now();
+  WaveformRequest wave_request;
+  if (!opts.waveforms.empty()) {
+    std::string why;
+    if (!ParseWaveformSelection(opts.waveforms, &wave_request.worst, &wave_request.indices,
+                                &why)) {
+      std::fprintf(stderr, "zvsmap: error: --waveforms: %s\n", why.c_str());
+      return kExitBadInput;
+    }
+    wave_request.timeout_s = opts.timeout_s;
+    wave_request.quiet = opts.quiet;
+  }
   PreparedSweep sweep;
   std::vector<Diagnostic> errors;
   if (!PrepareSweep(opts.sweep, opts.max_points, &sweep, &errors)) {
     PrintErrors(errors);
     return kExitBadInput;
+  }
+  for (size_t i : wave_request.indices) {
+    if (i >= sweep.points.size()) {
+      std::fprintf(stderr, "zvsmap: error: --waveforms: the sweep has points 0 to %zu, not %zu\n",
+                   sweep.points.size() - 1, i);
+      return kExitBadInput;
+    }
   }
   for (size_t i = 0; i < sweep.points.size(); ++i) {
     if (sweep.points[i].index != i) {
@@ -210,6 +231,12 @@ int Run(const Options& opts) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitInternal;
   }
+  // Waveforms of chosen points, before the reports so index.html links them;
+  // one forked child owns the ngspice. Its failure leaves the verdict alone.
+  if (!opts.waveforms.empty() && !interrupted &&
+      ExportWaveformsInChild(sweep, results, wave_request, opts.out_dir) != kExitOk) {
+    std::fprintf(stderr, "zvsmap: warning: some waveforms were not written (see above)\n");
+  }
   double wall_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
   RunSummaryInput summary{sweep,      mine, results, opts.out_dir, store_path,
                           shard_text, kept, wall_s,  interrupted};
@@ -242,6 +269,9 @@ void AddRunCommand(CLI::App& app, int* exit_code) {
                   "(SLURM_ARRAY_TASK_*) or JOB_COMPLETION_INDEX with --shards");
   cmd->add_option("--shards", opts->shards,
                   "Number of shards when the index comes from JOB_COMPLETION_INDEX");
+  cmd->add_option("--waveforms", opts->waveforms,
+                  "After the run, save settled waveforms and edge plots into DIR/waveforms for "
+                  "'worst' (each cell and edge's worst point) and/or point indices, e.g. worst,3,7");
   cmd->callback([opts, exit_code] { *exit_code = Run(*opts); });
 }
 

@@ -1,5 +1,7 @@
 #include "report/report_set.h"
 
+#include <algorithm>
+#include <cstdlib>
 #include <filesystem>
 #include <fstream>
 #include <sstream>
@@ -27,6 +29,26 @@ bool WriteText(const std::string& dir, const std::string& name, const std::strin
   }
   outcome->files.push_back(path);
   return true;
+}
+
+// The names of DIR/waveforms/point_*.{svg,raw}, sorted (none when absent).
+std::vector<std::string> WaveformFiles(const std::string& dir) {
+  std::vector<std::string> names;
+  std::error_code ec;
+  std::filesystem::directory_iterator it(std::filesystem::path(dir) / "waveforms", ec);
+  if (ec) return names;
+  for (const auto& entry : it) {
+    std::string name = entry.path().filename().string();
+    std::string ext = entry.path().extension().string();
+    if (name.rfind("point_", 0) == 0 && (ext == ".svg" || ext == ".raw")) names.push_back(name);
+  }
+  // By point number, then name (point_2 before point_10).
+  auto number = [](const std::string& n) { return std::strtoull(n.c_str() + 6, nullptr, 10); };
+  std::sort(names.begin(), names.end(), [&](const std::string& a, const std::string& b) {
+    unsigned long long na = number(a), nb = number(b);
+    return na != nb ? na < nb : a < b;
+  });
+  return names;
 }
 
 std::string XmlText(const pugi::xml_document& doc) {
@@ -63,7 +85,17 @@ bool WriteReports(const ReportInput& input, const std::string& dir, ReportOutcom
 
   std::vector<std::string> links = {"edges.csv", "summary.xml", "junit.xml"};
   for (const Plot& p : plots) links.push_back(p.file);
-  return WriteText(dir, "index.html", BuildHtmlIndex(input, verdicts, plots, links), outcome,
+  // Waveforms saved earlier (`zvsmap waveforms`, `run --waveforms`): their
+  // plots shown, the raw files linked.
+  std::vector<Plot> shown = plots;
+  for (const std::string& name : WaveformFiles(dir)) {
+    std::string rel = "waveforms/" + name;
+    if (name.size() > 4 && name.compare(name.size() - 4, 4, ".svg") == 0) {
+      shown.push_back({rel, "Commutation waveforms: " + name, ""});
+    }
+    links.push_back(rel);
+  }
+  return WriteText(dir, "index.html", BuildHtmlIndex(input, verdicts, shown, links), outcome,
                    error);
 }
 
