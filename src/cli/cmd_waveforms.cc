@@ -110,8 +110,7 @@ int ExportWaveformsInChild(const PreparedSweep& sweep, const std::vector<PointRe
     std::this_thread::sleep_for(std::chrono::milliseconds(20));
   }
   if (WIFSIGNALED(status)) {
-    std::fprintf(stderr, "zvsmap: error: waveform export crashed (signal %d)\n",
-                 WTERMSIG(status));
+    std::fprintf(stderr, "zvsmap: error: waveform export crashed (signal %d)\n", WTERMSIG(status));
     return kExitInternal;
   }
   return WIFEXITED(status) ? WEXITSTATUS(status) : kExitInternal;
@@ -162,8 +161,8 @@ int Waveforms(const Options& opts) {
     std::string error;
     std::unique_ptr<RunStore> store = RunStore::Open(store_path.string(), &error);
     PointEvaluator evaluator(sweep.spec, sweep.tmpl);
-    if (!store || !CollectStoredResults(*store, PointContentHashes(sweep, evaluator), &results,
-                                        &error)) {
+    if (!store ||
+        !CollectStoredResults(*store, PointContentHashes(sweep, evaluator), &results, &error)) {
       std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
       return kExitInternal;
     }

@@ -11,8 +11,8 @@ namespace zvsmap {
 
 /// The header lines of a raw file that are not derived from the data.
 struct RawFileInfo {
-  std::string title;                            ///< "Title:" line (one line; newlines become spaces)
-  std::string date;                             ///< "Date:" line, e.g. from RawFileDate()
+  std::string title;  ///< "Title:" line (one line; newlines become spaces)
+  std::string date;   ///< "Date:" line, e.g. from RawFileDate()
   std::string plotname = "Transient Analysis";  ///< "Plotname:" line
 };
 

@@ -109,8 +109,7 @@ void DrawPanel(SvgCanvas& svg, double top, const std::vector<double>& t_ns, doub
 
 }  // namespace
 
-void EdgePlotWindow(const Waveforms& waves, const EdgeTiming& timing, double* t0_s,
-                    double* t1_s) {
+void EdgePlotWindow(const Waveforms& waves, const EdgeTiming& timing, double* t0_s, double* t1_s) {
   const std::vector<double>& t = waves.time();
   double span = t.empty() ? 0 : t.back() - t.front();
   double dead = std::max(timing.t_on_s - timing.t_off_s, 0.0);

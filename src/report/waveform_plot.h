@@ -15,8 +15,7 @@ namespace zvsmap {
 /// turn-off command to one and a half dead times after the turn-on command
 /// (at least 2 % of the data's span either side when the dead time is ~0),
 /// clipped to the data and to the incoming switch's next turn-off command.
-void EdgePlotWindow(const Waveforms& waves, const EdgeTiming& timing, double* t0_s,
-                    double* t1_s);
+void EdgePlotWindow(const Waveforms& waves, const EdgeTiming& timing, double* t0_s, double* t1_s);
 
 /// Three panels sharing a time axis in ns from the turn-off command: the
 /// switch node voltage (with the rails dashed), the gate-source voltages of

@@ -98,8 +98,8 @@ bool ParseWaveformSelection(const std::string& text, bool* worst, std::vector<si
     }
     if (item.empty() || item.find_first_not_of("0123456789") != std::string::npos ||
         item.size() > 18) {
-      *error = "waveform selection '" + text + "': '" + item +
-               "' is neither a point index nor 'worst'";
+      *error =
+          "waveform selection '" + text + "': '" + item + "' is neither a point index nor 'worst'";
       return false;
     }
     indices->push_back(std::stoull(item));
