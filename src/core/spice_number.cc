@@ -5,16 +5,9 @@
 #include <cstdio>
 #include <cstdlib>
 
+#include "core/text.h"
+
 namespace zvsmap {
-
-namespace {
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
-
-}  // namespace
 
 std::optional<double> ParseSpiceNumber(const std::string& raw) {
   // Trim surrounding blanks.
@@ -44,15 +37,40 @@ std::optional<double> ParseSpiceNumber(const std::string& raw) {
     used = 3;
   } else if (!rest.empty()) {
     switch (rest[0]) {
-      case 'f': exponent = -15; used = 1; break;
-      case 'p': exponent = -12; used = 1; break;
-      case 'n': exponent = -9; used = 1; break;
-      case 'u': exponent = -6; used = 1; break;
-      case 'm': exponent = -3; used = 1; break;
-      case 'k': exponent = 3; used = 1; break;
-      case 'g': exponent = 9; used = 1; break;
-      case 't': exponent = 12; used = 1; break;
-      default: break;
+      case 'f':
+        exponent = -15;
+        used = 1;
+        break;
+      case 'p':
+        exponent = -12;
+        used = 1;
+        break;
+      case 'n':
+        exponent = -9;
+        used = 1;
+        break;
+      case 'u':
+        exponent = -6;
+        used = 1;
+        break;
+      case 'm':
+        exponent = -3;
+        used = 1;
+        break;
+      case 'k':
+        exponent = 3;
+        used = 1;
+        break;
+      case 'g':
+        exponent = 9;
+        used = 1;
+        break;
+      case 't':
+        exponent = 12;
+        used = 1;
+        break;
+      default:
+        break;
     }
   }
   // What follows the suffix may only be a unit annotation made of letters.
@@ -87,9 +105,11 @@ std::string FormatNumber(double value) {
 
 std::string FormatEngineering(double value, int digits) {
   if (value == 0 || !std::isfinite(value)) return FormatNumber(value);
-  static const struct { double scale; const char* suffix; } kSteps[] = {
-      {1e12, "t"}, {1e9, "g"}, {1e6, "meg"}, {1e3, "k"}, {1, ""},
-      {1e-3, "m"}, {1e-6, "u"}, {1e-9, "n"}, {1e-12, "p"}, {1e-15, "f"}};
+  static const struct {
+    double scale;
+    const char* suffix;
+  } kSteps[] = {{1e12, "t"}, {1e9, "g"},  {1e6, "meg"}, {1e3, "k"},   {1, ""},
+                {1e-3, "m"}, {1e-6, "u"}, {1e-9, "n"},  {1e-12, "p"}, {1e-15, "f"}};
   double mag = std::fabs(value);
   for (const auto& s : kSteps) {
     if (mag >= s.scale * 0.9999999) {

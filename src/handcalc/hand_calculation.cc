@@ -6,16 +6,12 @@
 #include <map>
 
 #include "core/spice_number.h"
+#include "core/text.h"
 #include "netlist/render.h"
 
 namespace zvsmap {
 
 namespace {
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
 
 // Line `line` (1-based) of a file, or "" (e.g. a sweep parsed from text).
 std::string FileLine(const std::string& path, int line) {

@@ -8,14 +8,11 @@
 #include <set>
 #include <sstream>
 
+#include "core/text.h"
+
 namespace zvsmap {
 
 namespace {
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
 
 // Splits a SPICE line into tokens; text inside {}, () and quotes stays whole.
 std::vector<std::string> Tokens(const std::string& line) {

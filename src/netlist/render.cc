@@ -5,22 +5,11 @@
 #include <sstream>
 
 #include "core/spice_number.h"
+#include "core/text.h"
 
 namespace zvsmap {
 
 namespace {
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
-
-std::string Trim(const std::string& s) {
-  size_t b = s.find_first_not_of(" \t\r");
-  if (b == std::string::npos) return "";
-  size_t e = s.find_last_not_of(" \t\r");
-  return s.substr(b, e - b + 1);
-}
 
 // The dot-command a line starts with (".tran", ".param", ...), lower-case, or "".
 std::string DotCommand(const std::string& line) {
@@ -44,8 +33,8 @@ bool EvalTemplateExpr(const std::string& expr, const Variables& vars, const Sour
 
 }  // namespace
 
-bool ResolveParams(const Template& tmpl, const std::vector<ParamValue>& values,
-                   Variables* resolved, Diagnostic* error) {
+bool ResolveParams(const Template& tmpl, const std::vector<ParamValue>& values, Variables* resolved,
+                   Diagnostic* error) {
   resolved->clear();
   Variables given;
   for (const auto& v : values) given[Lower(v.name)] = v.value;
@@ -81,16 +70,17 @@ bool ResolvePeriod(const Template& tmpl, const Variables& resolved, double* peri
   }
   if (!(*period_s > 0)) {
     *error = Diagnostic{tmpl.period_where,
-                        "the period evaluates to " + FormatNumber(*period_s) + " s, not > 0", {}};
+                        "the period evaluates to " + FormatNumber(*period_s) + " s, not > 0",
+                        {}};
     return false;
   }
   return true;
 }
 
-std::string RenderNetlist(const Template& tmpl, const Variables& resolved,
-                          const TranSettings& tran, const std::vector<std::string>& vectors) {
-  static const std::set<std::string> kDropped = {".tran", ".save",  ".print", ".plot", ".probe",
-                                                 ".meas", ".measure", ".end",  ".four", ".op"};
+std::string RenderNetlist(const Template& tmpl, const Variables& resolved, const TranSettings& tran,
+                          const std::vector<std::string>& vectors) {
+  static const std::set<std::string> kDropped = {".tran", ".save",    ".print", ".plot", ".probe",
+                                                 ".meas", ".measure", ".end",   ".four", ".op"};
   std::ostringstream out;
   bool first = true;
   bool in_control = false;

@@ -5,21 +5,11 @@
 #include <map>
 #include <sstream>
 
+#include "core/text.h"
+
 namespace zvsmap {
 
 namespace {
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
-
-std::string Trim(const std::string& s) {
-  size_t b = s.find_first_not_of(" \t\r");
-  if (b == std::string::npos) return "";
-  size_t e = s.find_last_not_of(" \t\r");
-  return s.substr(b, e - b + 1);
-}
 
 bool StartsWithNoCase(const std::string& s, const std::string& prefix) {
   return Lower(s.substr(0, prefix.size())) == prefix;
@@ -81,13 +71,12 @@ bool SplitParamLine(const std::string& body, std::vector<std::pair<std::string, 
   }
 }
 
-const char* const kCellKeys[] = {"node",      "rail_high",   "rail_low",  "current",
-                                 "high",      "low",         "high_cmd",  "low_cmd",
-                                 "high_gate", "high_source", "low_gate",  "low_source",
-                                 "high_dead", "low_dead",    "high_vth",  "low_vth",
-                                 "inductance", "coss"};
-const char* const kRequiredCellKeys[] = {"node",     "rail_high", "rail_low", "current",
-                                         "high_cmd", "low_cmd"};
+const char* const kCellKeys[] = {"node",     "rail_high",  "rail_low",  "current",   "high",
+                                 "low",      "high_cmd",   "low_cmd",   "high_gate", "high_source",
+                                 "low_gate", "low_source", "high_dead", "low_dead",  "high_vth",
+                                 "low_vth",  "inductance", "coss"};
+const char* const kRequiredCellKeys[] = {"node",    "rail_high", "rail_low",
+                                         "current", "high_cmd",  "low_cmd"};
 
 bool ParseCell(const std::vector<std::string>& words, const std::string& path, int line,
                CellSpec* cell, Diagnostic* error) {
@@ -111,8 +100,9 @@ bool ParseCell(const std::vector<std::string>& words, const std::string& path, i
     if (!known) {
       std::vector<std::string> keys(std::begin(kCellKeys), std::end(kCellKeys));
       std::string hint = ClosestName(key, keys);
-      *error = At(path, line, "unknown cell key '" + key + "'" +
-                                  (hint.empty() ? "" : " (did you mean '" + hint + "'?)"));
+      *error = At(path, line,
+                  "unknown cell key '" + key + "'" +
+                      (hint.empty() ? "" : " (did you mean '" + hint + "'?)"));
       return false;
     }
     if (kv.count(key)) {
@@ -252,8 +242,9 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
       // `*@ model NAME input=param ...`: which hand-calculation model applies
       // (src/handcalc); the names are checked there, against its registry.
       if (words.size() < 2 || !out->model.empty()) {
-        *error = At(path, a.line, words.size() < 2 ? "'*@ model' needs a name, e.g. '*@ model buck'"
-                                                   : "more than one '*@ model'");
+        *error = At(path, a.line,
+                    words.size() < 2 ? "'*@ model' needs a name, e.g. '*@ model buck'"
+                                     : "more than one '*@ model'");
         return false;
       }
       out->model = Lower(words[1]);
@@ -268,8 +259,8 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
                                          Lower(words[k].substr(eq + 1)));
       }
     } else {
-      *error = At(path, a.line, "unknown annotation '*@ " + words[0] +
-                                    "' (known: period, cell, state, model)");
+      *error = At(path, a.line,
+                  "unknown annotation '*@ " + words[0] + "' (known: period, cell, state, model)");
       return false;
     }
   }
@@ -287,17 +278,19 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
                            const std::string& what) {
     if (name.empty() || out->FindParam(name)) return true;
     std::string hint = ClosestName(name, out->ParamNames());
-    *error = Diagnostic{where, what + " names parameter '" + name + "', which has no .param" +
-                                   (hint.empty() ? "" : " (did you mean '" + hint + "'?)"),
+    *error = Diagnostic{where,
+                        what + " names parameter '" + name + "', which has no .param" +
+                            (hint.empty() ? "" : " (did you mean '" + hint + "'?)"),
                         {}};
     return false;
   };
   for (const auto& c : out->cells) {
     if (!require_param(c.high_dead, c.where, "cell '" + c.name + "' high_dead")) return false;
     if (!require_param(c.low_dead, c.where, "cell '" + c.name + "' low_dead")) return false;
-    const std::pair<const char*, const std::string*> named[] = {
-        {"high_vth", &c.high_vth}, {"low_vth", &c.low_vth}, {"inductance", &c.inductance},
-        {"coss", &c.coss}};
+    const std::pair<const char*, const std::string*> named[] = {{"high_vth", &c.high_vth},
+                                                                {"low_vth", &c.low_vth},
+                                                                {"inductance", &c.inductance},
+                                                                {"coss", &c.coss}};
     for (const auto& [key, name] : named) {
       if (!require_param(*name, c.where, "cell '" + c.name + "' " + key)) return false;
     }

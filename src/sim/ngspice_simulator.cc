@@ -10,6 +10,7 @@
 #include <sstream>
 
 #include "core/diagnostic.h"
+#include "core/text.h"
 
 namespace zvsmap {
 
@@ -33,11 +34,6 @@ constexpr const char* kPoisonedError = "engine unusable after an earlier fatal e
 
 bool StartsWith(const std::string& s, const char* prefix) {
   return s.compare(0, std::char_traits<char>::length(prefix), prefix) == 0;
-}
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
 }
 
 int OnPrintf(char* text, int /*id*/, void* /*user*/) {
@@ -88,13 +84,6 @@ bool IsBenignStderr(const std::string& line) {
     if (StartsWith(lower, prefix)) return true;
   }
   return false;
-}
-
-std::string Trim(const std::string& s) {
-  size_t b = s.find_first_not_of(" \t\r\n");
-  if (b == std::string::npos) return "";
-  size_t e = s.find_last_not_of(" \t\r\n");
-  return s.substr(b, e - b + 1);
 }
 
 // The first error line of this run. ngspice often splits one message over

@@ -7,18 +7,9 @@
 #include <cstddef>
 
 #include "core/diagnostic.h"
+#include "core/text.h"
 
 namespace zvsmap {
-namespace {
-
-std::string Lower(const std::string& s) {
-  std::string out = s;
-  for (char& c : out) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return out;
-}
-
-}  // namespace
-
 void Waveforms::Set(const std::string& name, std::vector<double> values) {
   if (values.size() != time_.size()) {
     throw Error(fmt::format("vector '{}' has {} samples but the time axis has {}", name,

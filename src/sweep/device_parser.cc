@@ -6,15 +6,11 @@
 #include <sstream>
 
 #include "core/spice_number.h"
+#include "core/text.h"
 
 namespace zvsmap {
 
 namespace {
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
 
 bool IsLabel(const std::string& s) {
   return !s.empty() && std::all_of(s.begin(), s.end(), [](char c) {

@@ -9,16 +9,11 @@
 
 #include "core/expression.h"
 #include "core/spice_number.h"
+#include "core/text.h"
 
 namespace zvsmap {
 
 namespace {
-
-std::string Trim(const std::string& s) {
-  size_t b = s.find_first_not_of(" \t\r\n");
-  if (b == std::string::npos) return "";
-  return s.substr(b, s.find_last_not_of(" \t\r\n") - b + 1);
-}
 
 bool IsName(const std::string& s) {
   if (s.empty() || std::isdigit(static_cast<unsigned char>(s[0]))) return false;

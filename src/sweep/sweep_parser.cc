@@ -10,6 +10,7 @@
 #include <sstream>
 
 #include "core/spice_number.h"
+#include "core/text.h"
 #include "sweep/axis_values.h"
 #include "sweep/device_parser.h"
 #include "sweep/prediction_parser.h"
@@ -18,17 +19,6 @@
 namespace zvsmap {
 
 namespace {
-
-std::string Lower(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
-
-std::string Trim(const std::string& s) {
-  size_t b = s.find_first_not_of(" \t\r\n");
-  if (b == std::string::npos) return "";
-  return s.substr(b, s.find_last_not_of(" \t\r\n") - b + 1);
-}
 
 bool IsIdentifier(const std::string& s) {
   if (s.empty() || std::isdigit(static_cast<unsigned char>(s[0]))) return false;
@@ -320,11 +310,12 @@ bool Parser::CheckDeviceAxes() {
           found = found || Lower(d.name) == Lower(name);
         }
         if (!found) {
-          return Fail(a.where, "unknown device '" + name + "' (declare it with <device name=\"" +
-                                 name + "\" .../>" +
-                                 (ClosestName(name, declared).empty()
-                                      ? std::string(")")
-                                      : "; did you mean '" + ClosestName(name, declared) + "'?)"));
+          return Fail(a.where,
+                      "unknown device '" + name + "' (declare it with <device name=\"" + name +
+                          "\" .../>" +
+                          (ClosestName(name, declared).empty()
+                               ? std::string(")")
+                               : "; did you mean '" + ClosestName(name, declared) + "'?)"));
         }
       }
     }
@@ -522,8 +513,8 @@ bool Parser::Run(bool check_template_exists) {
   if (!CheckShape(root, {})) return false;
   spec_->limits_where = Where(root);
 
-  static const std::vector<std::string> kElements = {"template", "set",        "axis", "lockstep",
-                                                     "derive",   "simulation", "zvs",  "limits",
+  static const std::vector<std::string> kElements = {"template", "set",        "axis",  "lockstep",
+                                                     "derive",   "simulation", "zvs",   "limits",
                                                      "require",  "predict",    "device"};
   for (pugi::xml_node node : root.children()) {
     if (node.type() != pugi::node_element) {
@@ -580,8 +571,8 @@ bool Parser::Run(bool check_template_exists) {
       auto fail = [&](const char* attribute, const std::string& message) {
         return attribute ? FailAttr(node, attribute, message) : Fail(node, message);
       };
-      ok = ParsePrediction(node, Where(node), WhereAttr(node, "expr"), spec_->predictions, fail,
-                           &p);
+      ok =
+          ParsePrediction(node, Where(node), WhereAttr(node, "expr"), spec_->predictions, fail, &p);
       if (ok) spec_->predictions.push_back(std::move(p));
     }
     if (!ok) return false;

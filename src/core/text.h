@@ -1,0 +1,14 @@
+// Small text helpers shared by the parsers.
+#pragma once
+
+#include <string>
+
+namespace zvsmap {
+
+/// ASCII lower case (SPICE names and our keywords are case-insensitive).
+std::string Lower(std::string s);
+
+/// `s` without leading and trailing blanks (space, tab, CR, LF).
+std::string Trim(const std::string& s);
+
+}  // namespace zvsmap
