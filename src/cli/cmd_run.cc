@@ -233,9 +233,13 @@ int Run(const Options& opts) {
   }
   // Waveforms of chosen points, before the reports so index.html links them;
   // one forked child owns the ngspice. Its failure leaves the verdict alone.
-  if (!opts.waveforms.empty() && !interrupted &&
-      ExportWaveformsInChild(sweep, results, wave_request, opts.out_dir) != kExitOk) {
-    std::fprintf(stderr, "zvsmap: warning: some waveforms were not written (see above)\n");
+  if (!opts.waveforms.empty() && !interrupted) {
+    int rc = ExportWaveformsInChild(sweep, results, wave_request, opts.out_dir);
+    if (rc == kExitInterrupted) {
+      interrupted = true;
+    } else if (rc != kExitOk) {
+      std::fprintf(stderr, "zvsmap: warning: some waveforms were not written (see above)\n");
+    }
   }
   double wall_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
   RunSummaryInput summary{sweep,      mine, results, opts.out_dir, store_path,

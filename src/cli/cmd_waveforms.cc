@@ -109,6 +109,10 @@ int ExportWaveformsInChild(const PreparedSweep& sweep, const std::vector<PointRe
     }
     std::this_thread::sleep_for(std::chrono::milliseconds(20));
   }
+  if (WIFSIGNALED(status) && (WTERMSIG(status) == SIGINT || WTERMSIG(status) == SIGTERM)) {
+    std::fprintf(stderr, "zvsmap: waveform export interrupted\n");
+    return kExitInterrupted;
+  }
   if (WIFSIGNALED(status)) {
     std::fprintf(stderr, "zvsmap: error: waveform export crashed (signal %d)\n", WTERMSIG(status));
     return kExitInternal;

@@ -24,7 +24,8 @@ struct WaveformRequest {
 /// ExportWaveforms) and prints what it wrote; waits for it, killing it after
 /// the timeout. Returns an exit status: kExitOk when every chosen point gave
 /// its files, kExitPointsFailed when some did not (or nothing was chosen),
-/// kExitInternal when the child crashed, timed out or could not start.
+/// kExitInterrupted when SIGINT/SIGTERM ended it, kExitInternal when the
+/// child crashed, timed out or could not start.
 int ExportWaveformsInChild(const PreparedSweep& sweep, const std::vector<PointResult>& results,
                            const WaveformRequest& request, const std::string& out_dir);
 
