@@ -50,6 +50,24 @@ bool Difference(const Waveforms& w, const std::string& plus, const std::string& 
 
 std::string Eng(double v) { return FormatEngineering(v, 3); }
 
+// Round tick values (1, 2 or 5 times a power of ten apart) inside [lo, hi],
+// about `count` of them.
+std::vector<double> Ticks(double lo, double hi, int count) {
+  std::vector<double> out;
+  double raw = (hi - lo) / std::max(1, count - 1);
+  if (!(raw > 0) || !std::isfinite(raw)) return out;
+  double base = std::pow(10, std::floor(std::log10(raw)));
+  double step = base;
+  for (double m : {1.0, 2.0, 5.0, 10.0}) {
+    step = m * base;
+    if (step >= raw) break;
+  }
+  for (double v = std::ceil(lo / step) * step; v <= hi + step * 1e-9; v += step) {
+    out.push_back(std::fabs(v) < step * 1e-9 ? 0.0 : v);
+  }
+  return out;
+}
+
 void DrawPanel(SvgCanvas& svg, double top, const std::vector<double>& t_ns, double x_lo,
                double x_hi, const std::vector<Trace>& traces, const std::string& y_label,
                const std::vector<std::pair<double, std::string>>& markers_ns) {
@@ -76,13 +94,11 @@ void DrawPanel(SvgCanvas& svg, double top, const std::vector<double>& t_ns, doub
 
   svg.Line(kLeft, top + kPanel, kLeft + plot_w, top + kPanel, "#000000", 1);
   svg.Line(kLeft, top, kLeft, top + kPanel, "#000000", 1);
-  for (int k = 0; k <= 4; ++k) {
-    double v = y_lo + (y_hi - y_lo) * k / 4;
+  for (double v : Ticks(y_lo, y_hi, 6)) {
     svg.Line(kLeft, py(v), kLeft + plot_w, py(v), "#e6e6e6", 1);
     svg.Text(kLeft - 6, py(v) + 4, Eng(v), "end", 11);
   }
-  for (int k = 0; k <= 6; ++k) {
-    double x = x_lo + (x_hi - x_lo) * k / 6;
+  for (double x : Ticks(x_lo, x_hi, 7)) {
     svg.Line(px(x), top + kPanel, px(x), top + kPanel + 4, "#000000", 1);
     svg.Text(px(x), top + kPanel + 16, Eng(x), "middle", 10);
   }
