@@ -112,8 +112,18 @@ void DrawPanel(SvgCanvas& svg, double top, const std::vector<double>& t_ns, doub
   double ly = top + 14;
   for (const Trace& tr : traces) {
     std::vector<std::pair<double, double>> pts;
-    for (size_t i = 0; i < t_ns.size() && i < tr.y.size(); ++i) {
-      if (std::isfinite(tr.y[i])) pts.emplace_back(px(t_ns[i]), py(tr.y[i]));
+    // Window() keeps one sample either side: draw to the frame's edge only.
+    size_t n = std::min(t_ns.size(), tr.y.size());
+    for (size_t i = 0; i < n; ++i) {
+      double x = t_ns[i], y = tr.y[i];
+      if (x < x_lo || x > x_hi) {
+        size_t j = x < x_lo ? i + 1 : i - 1;  // the neighbour inside
+        if (j >= n || t_ns[j] == x) continue;
+        double edge = x < x_lo ? x_lo : x_hi;
+        y += (tr.y[j] - y) * (edge - x) / (t_ns[j] - x);
+        x = edge;
+      }
+      if (std::isfinite(y)) pts.emplace_back(px(x), py(y));
     }
     svg.Polyline(pts, tr.colour, tr.dashed ? 1 : 2, tr.dashed);
     double lx = kWidth - kRight + 14;
@@ -129,8 +139,8 @@ void EdgePlotWindow(const Waveforms& waves, const EdgeTiming& timing, double* t0
   const std::vector<double>& t = waves.time();
   double span = t.empty() ? 0 : t.back() - t.front();
   double dead = std::max(timing.t_on_s - timing.t_off_s, 0.0);
-  double before = std::max(0.5 * dead, 0.02 * span);
-  double after = std::max(1.5 * dead, 0.02 * span);
+  double before = std::max(dead, 0.002 * span);
+  double after = std::max(2 * dead, 0.004 * span);
   *t0_s = timing.t_off_s - before;
   *t1_s = timing.t_on_s + after;
   if (timing.t_end_s > timing.t_on_s) *t1_s = std::min(*t1_s, timing.t_end_s);

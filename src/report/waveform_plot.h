@@ -11,9 +11,9 @@
 
 namespace zvsmap {
 
-/// The time window plotted for an edge: from half a dead time before the
-/// turn-off command to one and a half dead times after the turn-on command
-/// (at least 2 % of the data's span either side when the dead time is ~0),
+/// The time window plotted for an edge: from one dead time (t_on - t_off)
+/// before the turn-off command to two dead times after the turn-on command
+/// (at least 0.2 % and 0.4 % of the data's span, for a dead time near zero),
 /// clipped to the data and to the incoming switch's next turn-off command.
 void EdgePlotWindow(const Waveforms& waves, const EdgeTiming& timing, double* t0_s, double* t1_s);
 

@@ -3,6 +3,7 @@
 #include <gtest/gtest.h>
 
 #include <cmath>
+#include <sstream>
 #include <pugixml.hpp>
 #include <string>
 #include <vector>
@@ -88,6 +89,19 @@ TEST(WaveformPlotTest, WellFormedWithThreePanelsOfData) {
     longest = std::max<size_t>(longest, std::count(pts.begin(), pts.end(), ' ') + 1);
   }
   EXPECT_EQ(polylines, 5);
+  // Every trace stays inside the frame: the first line drawn is the first
+  // panel's time axis. // common practice, no source
+  pugi::xml_node axis = svg.child("line");
+  double left = axis.attribute("x1").as_double(), right = axis.attribute("x2").as_double();
+  for (pugi::xml_node p : svg.children("polyline")) {
+    std::istringstream pts(p.attribute("points").value());
+    std::string xy;
+    while (pts >> xy) {
+      double x = std::stod(xy.substr(0, xy.find(',')));
+      EXPECT_GE(x, left - 1e-6);
+      EXPECT_LE(x, right + 1e-6);
+    }
+  }
   EXPECT_GT(longest, 50u);  // the window holds ~90 samples of 1 ns
   std::vector<std::string> labels;
   for (pugi::xml_node t : svg.children("text")) labels.push_back(t.text().get());
@@ -107,21 +121,24 @@ TEST(WaveformPlotTest, CommandsWhenTheCellNamesNoGates) {
   EXPECT_NE(std::find(labels.begin(), labels.end(), "command (V)"), labels.end());
 }
 
-// The window as the header states it: half a dead time before the turn-off
-// command, one and a half after the turn-on, at least 2 % of the span. // header contract
+// The window as the header states it: one dead time before the turn-off
+// command, two after the turn-on, at least 0.2 % / 0.4 % of the span. // header contract
 TEST(WaveformPlotTest, WindowAroundTheEdge) {
   double t0 = 0, t1 = 0;
   EdgePlotWindow(Edge(), Timing(), &t0, &t1);
-  // dead 40 ns: before max(20, 20) = 20 ns, after max(60, 20) = 60 ns.
-  EXPECT_NEAR(t0, 80e-9, 1e-15);
-  EXPECT_NEAR(t1, 200e-9, 1e-15);
+  // dead 40 ns: before max(40, 2) = 40 ns, after max(80, 4) = 80 ns.
+  EXPECT_NEAR(t0, 60e-9, 1e-15);
+  EXPECT_NEAR(t1, 220e-9, 1e-15);
   EdgeTiming late = Timing();
   late.t_off_s = 990e-9;
-  late.t_on_s = 995e-9;
+  late.t_on_s = 990e-9;  // no dead time
   late.t_end_s = 1e-6;
   EdgePlotWindow(Edge(), late, &t0, &t1);
-  EXPECT_NEAR(t0, 970e-9, 1e-15);  // 2 % of 1 us before
-  EXPECT_NEAR(t1, 1e-6, 1e-15);    // clipped to the data
+  EXPECT_NEAR(t0, 988e-9, 1e-15);  // 0.2 % of 1 us before
+  EXPECT_NEAR(t1, 994e-9, 1e-15);  // 0.4 % of 1 us after
+  late.t_end_s = 992e-9;
+  EdgePlotWindow(Edge(), late, &t0, &t1);
+  EXPECT_NEAR(t1, 992e-9, 1e-15);  // the incoming switch's next turn-off
 }
 
 }  // namespace
