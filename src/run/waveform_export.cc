@@ -11,6 +11,7 @@
 
 #include "analysis/edge_finder.h"
 #include "core/spice_number.h"
+#include "core/text.h"
 #include "netlist/render.h"
 #include "report/raw_writer.h"
 #include "report/waveform_plot.h"
@@ -24,11 +25,6 @@ std::string Safe(const std::string& s) {
   std::string out;
   for (char c : s) out += std::isalnum(static_cast<unsigned char>(c)) ? c : '_';
   return out;
-}
-
-std::string Trim(const std::string& s) {
-  size_t a = s.find_first_not_of(" \t"), b = s.find_last_not_of(" \t");
-  return a == std::string::npos ? "" : s.substr(a, b - a + 1);
 }
 
 bool WriteFile(const std::string& path, const std::string& text) {
