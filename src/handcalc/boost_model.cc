@@ -20,19 +20,6 @@ constexpr const char* kSrcZvs =
     "REFERENCES.md sec. 5 [derived]; mirror image of sec. 2 (Vorperian, IEEE TPEL 3(2), 1988)";
 constexpr const char* kSrcLinear = "Mohan, Undeland & Robbins 2003, soft-switching chapter";
 
-Prediction& Add(std::vector<Prediction>* out, std::string name, double value, std::string formula,
-                std::string source, std::vector<std::string> steps, std::string edge = "") {
-  Prediction p;
-  p.name = std::move(name);
-  p.value = value;
-  p.edge = std::move(edge);
-  p.formula = std::move(formula);
-  p.source = std::move(source);
-  p.steps = std::move(steps);
-  out->push_back(std::move(p));
-  return out->back();
-}
-
 class Boost : public TopologyModel {
  public:
   std::string Name() const override { return "boost"; }
@@ -61,13 +48,7 @@ class Boost : public TopologyModel {
 
 bool Boost::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
                     std::string* error) const {
-  for (const ModelInput& in : Inputs()) {
-    if (in.required && std::isnan(ctx.Input(in.name))) {
-      *error = "model 'boost' needs input '" + in.name + "' (" + in.description +
-               "): the template has no parameter '" + ctx.ParamOf(in.name) + "'";
-      return false;
-    }
-  }
+  if (!CheckRequiredInputs(*this, ctx, error)) return false;
   const double vin = ctx.Input("vin"), vo = ctx.Input("vout"), io = ctx.Input("iout"),
                l = ctx.Input("l"), coss = ctx.Input("coss"), fs = ctx.Input("fsw");
   if (!(vin > 0) || !(vo > vin) || !(l > 0) || !(coss > 0) || !(fs > 0) || !(io >= 0)) {
@@ -86,25 +67,25 @@ bool Boost::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
 
   // ---- Balances (Erickson & Maksimovic 2001, ch. 2).
   const double d = 1 - vin / vo;
-  Add(out, "duty", d, "D = 1 - Vin/Vout (low switch)", kSrcBoost,
+  AddPrediction(out, "duty", d, "D = 1 - Vin/Vout (low switch)", kSrcBoost,
       {"D = 1 - " + N(vin) + "/" + N(vo) + " = " + N(d)});
   const double iin = vo * io / vin;
-  Add(out, "i_in_a", iin, "Iin = Vout*Iout/Vin", kSrcBoost,
+  AddPrediction(out, "i_in_a", iin, "Iin = Vout*Iout/Vin", kSrcBoost,
       {"Iin = " + N(vo) + " * " + N(io) + " / " + N(vin) + " = " + N(iin) + " A"});
   if (tcm == 1 && !std::isnan(ir)) {
     // Triangle from -IR to Ipk = 2*Iin + IR, rise Vin*D*T/L = 2*(Iin + IR).
     const double f = vin * (vo - vin) / (2 * l * vo * (iin + ir));
-    Add(out, "f_tcm_hz", f, "fs = Vin*(Vout - Vin)/(2*L*Vout*(Iin + IR))", kSrcTcm,
+    AddPrediction(out, "f_tcm_hz", f, "fs = Vin*(Vout - Vin)/(2*L*Vout*(Iin + IR))", kSrcTcm,
         {"fs = " + N(vin) + " * " + N(vo - vin) + " / (2 * " + N(l) + " * " + N(vo) + " * (" +
          N(iin) + " + " + N(ir) + ")) = " + N(f) + " Hz (transition times neglected)"});
   }
   const double ripple = vin * d / (l * fs);
-  Add(out, "ripple_a", ripple, "dI = Vin*D/(L*fs)", kSrcBoost,
+  AddPrediction(out, "ripple_a", ripple, "dI = Vin*D/(L*fs)", kSrcBoost,
       {"dI = " + N(vin) + " * " + N(d) + " / (" + N(l) + " * " + N(fs) + ") = " + N(ripple) +
        " A"});
   const double ipk = iin + ripple / 2, irev = ripple / 2 - iin;
-  Add(out, "i_peak_a", ipk, "Ipk = Iin + dI/2", kSrcBoost, {"Ipk = " + N(ipk) + " A"});
-  Add(out, "i_reverse_a", irev, "I_R = dI/2 - Iin (> 0: current flows back to the input)",
+  AddPrediction(out, "i_peak_a", ipk, "Ipk = Iin + dI/2", kSrcBoost, {"Ipk = " + N(ipk) + " A"});
+  AddPrediction(out, "i_reverse_a", irev, "I_R = dI/2 - Iin (> 0: current flows back to the input)",
       kSrcBoost, {"I_R = " + N(irev) + " A"});
   const double q = coss * vo, ceq = 2 * coss;
   const double z = std::sqrt(l / ceq), w = 1 / std::sqrt(l * ceq);
@@ -112,19 +93,19 @@ bool Boost::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
   // ---- High-side turn-on: Ipk charges the node from 0 to Vout.
   {
     const std::string E = "high_on";
-    Prediction& pc = Add(out, E + "_i_commutated_a", -ipk, "i = -Ipk (into the node)", kSrcBoost,
+    Prediction& pc = AddPrediction(out, E + "_i_commutated_a", -ipk, "i = -Ipk (into the node)", kSrcBoost,
                          {"i_commutated = " + N(-ipk) + " A"}, E);
     pc.metric = "i_commutated_a";
     pc.tolerance = {0.1, 0.1};
     const double t = ipk > 0 ? 2 * q / ipk : NAN;
-    Prediction& pt = Add(out, E + "_t_transition_s", 0.8 * t,
+    Prediction& pt = AddPrediction(out, E + "_t_transition_s", 0.8 * t,
                          "t(10-90 %) = 0.8*2*Qoss(Vout)/Ipk (large current)", kSrcLinear,
                          {"t = 0.8 * 2 * " + N(q) + " / " + N(ipk) + " = " + N(0.8 * t) + " s"},
                          E);
     pt.metric = "t_transition_s";
     pt.tolerance = {0.1, 0.5e-9};
     const bool zvs = ipk > 0 && (std::isnan(td_high) || td_high >= t);
-    Prediction& vz = Add(out, E + "_zvs_charge", zvs ? 1 : 0, "ZVS iff Ipk > 0 and td >= t",
+    Prediction& vz = AddPrediction(out, E + "_zvs_charge", zvs ? 1 : 0, "ZVS iff Ipk > 0 and td >= t",
                          kSrcLinear, {"Ipk = " + N(ipk) + " A, t = " + N(t) + " s"}, E);
     vz.metric = "zvs_full";
     vz.tolerance = {0, 0.5};
@@ -135,13 +116,13 @@ bool Boost::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
   {
     const std::string E = "low_on";
     const double i0 = std::max(0.0, irev);
-    Prediction& pc = Add(out, E + "_i_commutated_a", irev, "i = I_R (out of the node)", kSrcBoost,
+    Prediction& pc = AddPrediction(out, E + "_i_commutated_a", irev, "i = I_R (out of the node)", kSrcBoost,
                          {"i_commutated = " + N(irev) + " A"}, E);
     pc.metric = "i_commutated_a";
     pc.tolerance = {0.1, 0.1};
     const double swing = std::max(0.0, 2 * vin - vo);
     const double i_zvs = std::sqrt(2 * q * swing / l);
-    Add(out, E + "_i_zvs_a", i_zvs, "I_zvs = sqrt(2*Qoss(Vout)*(2*Vin - Vout)/L)", kSrcZvs,
+    AddPrediction(out, E + "_i_zvs_a", i_zvs, "I_zvs = sqrt(2*Qoss(Vout)*(2*Vin - Vout)/L)", kSrcZvs,
         {"I_zvs = sqrt(2 * " + N(q) + " * " + N(swing) + " / " + N(l) + ") = " + N(i_zvs) +
          " A" + (swing == 0 ? " (Vin <= Vout/2: free)" : "")},
         E);
@@ -150,7 +131,7 @@ bool Boost::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
     const double amp = std::hypot(vo - vin, i0 * z);
     const double v_min = vin - amp;
     const double t_valley = (kPi - std::atan2(i0 * z, vo - vin)) / w;
-    Add(out, E + "_v_valley_v", v_min, "v_min = Vin - sqrt((Vout - Vin)^2 + (I_R*Z)^2)",
+    AddPrediction(out, E + "_v_valley_v", v_min, "v_min = Vin - sqrt((Vout - Vin)^2 + (I_R*Z)^2)",
         kSrcZvs, {"v_min = " + N(v_min) + " V at t = " + N(t_valley) + " s"}, E);
     double v_on = NAN;
     if (!std::isnan(td_low)) {
@@ -163,12 +144,12 @@ bool Boost::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
         v_on = vin + amp * std::cos(w * td_low + std::atan2(i0 * z, vo - vin));
       }
     }
-    Prediction& pv = Add(out, E + "_v_turn_on_v", v_on, "Vds(td) = v(td), clamped at 0",
+    Prediction& pv = AddPrediction(out, E + "_v_turn_on_v", v_on, "Vds(td) = v(td), clamped at 0",
                          kSrcZvs, {"td = " + N(td_low) + " s: v_turn_on = " + N(v_on) + " V"}, E);
     pv.metric = "v_turn_on_v";
     pv.tolerance = {0.05, 2.0};
     Prediction& vz =
-        Add(out, E + "_zvs_charge", (i0 >= i_zvs && (irev >= 0 || swing == 0)) ? 1 : 0,
+        AddPrediction(out, E + "_zvs_charge", (i0 >= i_zvs && (irev >= 0 || swing == 0)) ? 1 : 0,
             "ZVS iff I_R >= I_zvs", kSrcZvs, {"I_R = " + N(irev) + " A vs " + N(i_zvs) + " A"}, E);
     vz.metric = "zvs_full";
     vz.tolerance = {0, 0.5};

@@ -33,15 +33,8 @@ class Sheet {
   explicit Sheet(std::vector<Prediction>* out) : out_(out) {}
   Prediction& Add(std::string name, double value, std::string formula, std::string source,
                   std::vector<std::string> steps, std::string edge = "") {
-    Prediction p;
-    p.name = std::move(name);
-    p.value = value;
-    p.edge = std::move(edge);
-    p.formula = std::move(formula);
-    p.source = std::move(source);
-    p.steps = std::move(steps);
-    out_->push_back(std::move(p));
-    return out_->back();
+    return AddPrediction(out_, std::move(name), value, std::move(formula), std::move(source),
+                         std::move(steps), std::move(edge));
   }
 
  private:
@@ -89,13 +82,7 @@ class Buck : public TopologyModel {
 
 bool Buck::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
                    std::string* error) const {
-  for (const ModelInput& in : Inputs()) {
-    if (in.required && std::isnan(ctx.Input(in.name))) {
-      *error = "model 'buck' needs input '" + in.name + "' (" + in.description +
-               "): the template has no parameter '" + ctx.ParamOf(in.name) + "'";
-      return false;
-    }
-  }
+  if (!CheckRequiredInputs(*this, ctx, error)) return false;
   const double vin = ctx.Input("vin"), vo = ctx.Input("vout"), fs = ctx.Input("fsw"),
                l = ctx.Input("l"), io = ctx.Input("iout");
   if (!(vin > 0) || !(vo > 0) || !(vo < vin) || !(fs > 0) || !(l > 0)) {

@@ -18,19 +18,6 @@ constexpr const char* kSrcSabate =
 constexpr const char* kSrcLagCharge = "REFERENCES.md sec. 4 [derived] (charge-based)";
 constexpr const char* kSrcDerived = "REFERENCES.md sec. 4 [derived]";
 
-Prediction& Add(std::vector<Prediction>* out, std::string name, double value, std::string formula,
-                std::string source, std::vector<std::string> steps, std::string edge = "") {
-  Prediction p;
-  p.name = std::move(name);
-  p.value = value;
-  p.edge = std::move(edge);
-  p.formula = std::move(formula);
-  p.source = std::move(source);
-  p.steps = std::move(steps);
-  out->push_back(std::move(p));
-  return out->back();
-}
-
 class FullBridgePsm : public TopologyModel {
  public:
   std::string Name() const override { return "fullbridge_psm"; }
@@ -59,13 +46,7 @@ class FullBridgePsm : public TopologyModel {
 
 bool FullBridgePsm::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
                             std::string* error) const {
-  for (const ModelInput& in : Inputs()) {
-    if (in.required && std::isnan(ctx.Input(in.name))) {
-      *error = "model 'fullbridge_psm' needs input '" + in.name + "' (" + in.description +
-               "): the template has no parameter '" + ctx.ParamOf(in.name) + "'";
-      return false;
-    }
-  }
+  if (!CheckRequiredInputs(*this, ctx, error)) return false;
   const double vin = ctx.Input("vin"), vo = ctx.Input("vout"), io = ctx.Input("iout"),
                fs = ctx.Input("fsw"), n = ctx.Input("n"), lr = ctx.Input("lr"),
                lm = ctx.Input("lm"), lo = ctx.Input("lo"), coss = ctx.Input("coss");
@@ -88,61 +69,61 @@ bool FullBridgePsm::Predict(const ModelContext& ctx, std::vector<Prediction>* ou
 
   // ---- Whole converter (Sabate et al., APEC 1990).
   const double d_loss = 4 * lr * fs * io / (n * vin);
-  Add(out, "duty_loss", d_loss, "dD = 4*Lr*fs*Io/(n*Vin)", kSrcSabate,
+  AddPrediction(out, "duty_loss", d_loss, "dD = 4*Lr*fs*Io/(n*Vin)", kSrcSabate,
       {"dD = 4 * " + N(lr) + " * " + N(fs) + " * " + N(io) + " / (" + N(n) + " * " + N(vin) +
        ") = " + N(d_loss)});
   double d = ctx.Input("d");
   if (std::isnan(d)) d = n * vo / vin + d_loss;
   const double vo_est = vin / n * (d - d_loss);
-  Add(out, "vout_v", vo_est, "Vo = (Vin/n)*(D - dD) (rectifier drops neglected)", kSrcSabate,
+  AddPrediction(out, "vout_v", vo_est, "Vo = (Vin/n)*(D - dD) (rectifier drops neglected)", kSrcSabate,
       {"Vo = " + N(vin) + "/" + N(n) + " * (" + N(d) + " - " + N(d_loss) + ") = " + N(vo_est) +
        " V"});
   // The rectified voltage is Vin/n for Deff*T/2 of every half period, so the
   // output inductor ripples at 2*fs: dILo = Vo*(1 - Deff)/(2*Lo*fs), Deff = n*Vo/Vin.
   const double deff = n * vo / vin;
   const double ripple = vo * (1 - deff) / (2 * lo * fs);
-  Add(out, "i_lo_ripple_a", ripple, "dILo = Vo*(1 - n*Vo/Vin)/(2*Lo*fs)", kSrcDerived,
+  AddPrediction(out, "i_lo_ripple_a", ripple, "dILo = Vo*(1 - n*Vo/Vin)/(2*Lo*fs)", kSrcDerived,
       {"dILo = " + N(vo) + " * (1 - " + N(deff) + ") / (2 * " + N(lo) + " * " + N(fs) + ") = " +
        N(ripple) + " A"});
   // The winding sees about n*Vo on average over a half period:
   // Im_pk = n*Vo/(4*Lm*fs).
   const double im = n * vo / (4 * lm * fs);
-  Add(out, "i_mag_peak_a", im, "Im = n*Vo/(4*Lm*fs)", kSrcDerived,
+  AddPrediction(out, "i_mag_peak_a", im, "Im = n*Vo/(4*Lm*fs)", kSrcDerived,
       {"Im = " + N(n) + " * " + N(vo) + " / (4 * " + N(lm) + " * " + N(fs) + ") = " + N(im) +
        " A"});
   const double q_node = 2 * coss * vin + ctr * vin;  // charge moved per transition
   const double ceq = 2 * coss + ctr;
-  Add(out, "q_node_c", q_node, "Q = 2*Qoss(Vin) + C_TR*Vin", kSrcSabate,
+  AddPrediction(out, "q_node_c", q_node, "Q = 2*Qoss(Vin) + C_TR*Vin", kSrcSabate,
       {"Q = 2 * " + N(coss) + " * " + N(vin) + " + " + N(ctr) + " * " + N(vin) + " = " +
        N(q_node) + " C"});
 
   if (!lag) {
     // ---- Leading leg: nearly constant current (Sabate et al., APEC 1990).
     const double ip = (io + ripple / 2) / n + im;
-    Add(out, "i_primary_a", ip, "Ip = (Io + dILo/2)/n + Im", kSrcSabate,
+    AddPrediction(out, "i_primary_a", ip, "Ip = (Io + dILo/2)/n + Im", kSrcSabate,
         {"Ip = (" + N(io) + " + " + N(ripple) + "/2)/" + N(n) + " + " + N(im) + " = " + N(ip) +
          " A"});
     const double t = ip > 0 ? q_node / ip : NAN;
     for (const char* edge : {"high_on", "low_on"}) {
       const std::string E = edge;
       const double sign = E == "low_on" ? 1 : -1;  // > 0 out of the node
-      Prediction& pc = Add(out, E + "_i_commutated_a", sign * ip, "i = +-Ip", kSrcSabate,
+      Prediction& pc = AddPrediction(out, E + "_i_commutated_a", sign * ip, "i = +-Ip", kSrcSabate,
                            {"i_commutated = " + N(sign * ip) + " A (out of the node)"}, E);
       pc.metric = "i_commutated_a";
       pc.tolerance = {0.1, 0.1};
-      Add(out, E + "_t_linear_s", t, "t = (2*Qoss(Vin) + C_TR*Vin)/Ip", kSrcSabate,
+      AddPrediction(out, E + "_t_linear_s", t, "t = (2*Qoss(Vin) + C_TR*Vin)/Ip", kSrcSabate,
           {"t = " + N(q_node) + " / " + N(ip) + " = " + N(t) + " s"}, E);
-      Prediction& pt = Add(out, E + "_t_transition_s", 0.8 * t, "t(10-90 %) = 0.8*t", kSrcSabate,
+      Prediction& pt = AddPrediction(out, E + "_t_transition_s", 0.8 * t, "t(10-90 %) = 0.8*t", kSrcSabate,
                            {"t_transition = 0.8 * " + N(t) + " = " + N(0.8 * t) + " s"}, E);
       pt.metric = "t_transition_s";
       pt.tolerance = {0.05, 0.5e-9};
       const bool zvs = !std::isnan(td) && ip * td >= q_node;
       const double v_on = std::isnan(td) ? NAN : std::max(0.0, vin - ip * td / ceq);
-      Prediction& pv = Add(out, E + "_v_turn_on_v", v_on, "Vds(td) = max(0, Vin - Ip*td/Ceq)",
+      Prediction& pv = AddPrediction(out, E + "_v_turn_on_v", v_on, "Vds(td) = max(0, Vin - Ip*td/Ceq)",
                            kSrcSabate, {"td = " + N(td) + " s: v_turn_on = " + N(v_on) + " V"}, E);
       pv.metric = "v_turn_on_v";
       pv.tolerance = {0.05, 2.0};
-      Prediction& vz = Add(out, E + "_zvs_charge", zvs ? 1 : 0, "ZVS iff Ip*td >= Q", kSrcSabate,
+      Prediction& vz = AddPrediction(out, E + "_zvs_charge", zvs ? 1 : 0, "ZVS iff Ip*td >= Q", kSrcSabate,
                            {"Ip*td = " + N(ip * td) + " C vs Q = " + N(q_node) + " C"}, E);
       vz.metric = "zvs_full";
       vz.tolerance = {0, 0.5};
@@ -153,20 +134,20 @@ bool FullBridgePsm::Predict(const ModelContext& ctx, std::vector<Prediction>* ou
   // ---- Lagging leg: the rectifier shorts the winding; Lr alone swings the
   // node through the resonance with Ceq (REFERENCES.md sec. 4).
   const double ip = std::max(0.0, (io - ripple / 2) / n + im);
-  Add(out, "i_primary_a", ip, "Ip = (Io - dILo/2)/n + Im", kSrcDerived,
+  AddPrediction(out, "i_primary_a", ip, "Ip = (Io - dILo/2)/n + Im", kSrcDerived,
       {"Ip = (" + N(io) + " - " + N(ripple) + "/2)/" + N(n) + " + " + N(im) + " = " + N(ip) +
        " A"});
   const double need = vin * coss * vin + 0.5 * ctr * vin * vin;
   const double i_zvs = std::sqrt(2 * need / lr);
-  Add(out, "i_zvs_a", i_zvs, "1/2*Lr*Ip^2 >= Vin*Qoss(Vin) + 1/2*C_TR*Vin^2", kSrcLagCharge,
+  AddPrediction(out, "i_zvs_a", i_zvs, "1/2*Lr*Ip^2 >= Vin*Qoss(Vin) + 1/2*C_TR*Vin^2", kSrcLagCharge,
       {"I_zvs = sqrt(2 * " + N(need) + " / " + N(lr) + ") = " + N(i_zvs) + " A"});
   // Minimum load: (Io - dILo/2)/n + Im = I_zvs.
   const double io_min = std::max(0.0, n * (i_zvs - im) + ripple / 2);
-  Add(out, "iout_min_zvs_a", io_min, "Io_min = n*(I_zvs - Im) + dILo/2", kSrcLagCharge,
+  AddPrediction(out, "iout_min_zvs_a", io_min, "Io_min = n*(I_zvs - Im) + dILo/2", kSrcLagCharge,
       {"Io_min = " + N(n) + " * (" + N(i_zvs) + " - " + N(im) + ") + " + N(ripple) + "/2 = " +
        N(io_min) + " A"});
   const double zr = std::sqrt(lr / ceq), wr = 1 / std::sqrt(lr * ceq);
-  Add(out, "z_res_ohm", zr, "Zr = sqrt(Lr/Ceq), Ceq = 2*Coss + C_TR", kSrcSabate,
+  AddPrediction(out, "z_res_ohm", zr, "Zr = sqrt(Lr/Ceq), Ceq = 2*Coss + C_TR", kSrcSabate,
       {"Zr = sqrt(" + N(lr) + " / " + N(ceq) + ") = " + N(zr) + " ohm"});
   const double a = ip * zr;  // the resonant amplitude: v(t) = Ip*Zr*sin(wr*t)
   const bool reach = a >= vin;
@@ -176,12 +157,12 @@ bool FullBridgePsm::Predict(const ModelContext& ctx, std::vector<Prediction>* ou
   for (const char* edge : {"high_on", "low_on"}) {
     const std::string E = edge;
     const double sign = E == "low_on" ? 1 : -1;  // > 0 out of the node
-    Prediction& pc = Add(out, E + "_i_commutated_a", sign * ip, "i = +-Ip", kSrcDerived,
+    Prediction& pc = AddPrediction(out, E + "_i_commutated_a", sign * ip, "i = +-Ip", kSrcDerived,
                          {"i_commutated = " + N(sign * ip) + " A (out of the node)"}, E);
     pc.metric = "i_commutated_a";
     pc.tolerance = {0.1, 0.1};
     Prediction& pz =
-        Add(out, E + "_t_zvs_s", t_zvs, "wr*t = asin(Vin/(Ip*Zr))", kSrcSabate,
+        AddPrediction(out, E + "_t_zvs_s", t_zvs, "wr*t = asin(Vin/(Ip*Zr))", kSrcSabate,
             {reach ? "t = asin(" + N(vin) + " / " + N(a) + ") / " + N(wr) + " = " + N(t_zvs) + " s"
                    : "Ip*Zr = " + N(a) + " V < Vin: the node peaks short of the rail"},
             E);
@@ -189,12 +170,12 @@ bool FullBridgePsm::Predict(const ModelContext& ctx, std::vector<Prediction>* ou
     pz.tolerance = {0.03, 0.5e-9};
     const double t10 = 0.1 * vin <= a ? std::asin(0.1 * vin / a) / wr : NAN;
     const double t90 = 0.9 * vin <= a ? std::asin(0.9 * vin / a) / wr : NAN;
-    Prediction& pt = Add(out, E + "_t_transition_s", t90 - t10,
+    Prediction& pt = AddPrediction(out, E + "_t_transition_s", t90 - t10,
                          "t(v) = asin(v/(Ip*Zr))/wr, t90 - t10", kSrcSabate,
                          {"t10 = " + N(t10) + " s, t90 = " + N(t90) + " s"}, E);
     pt.metric = "t_transition_s";
     pt.tolerance = {0.03, 0.5e-9};
-    Add(out, E + "_t_dead_max_s", t_max, "td_max = t_ZVS + Lr*i_end/Vin", kSrcDerived,
+    AddPrediction(out, E + "_t_dead_max_s", t_max, "td_max = t_ZVS + Lr*i_end/Vin", kSrcDerived,
         {"i_end = sqrt(Ip^2 - (Vin/Zr)^2) = " + N(i_end) + " A, td_max = " + N(t_max) + " s"},
         E);
     double v_on = NAN;
@@ -205,11 +186,11 @@ bool FullBridgePsm::Predict(const ModelContext& ctx, std::vector<Prediction>* ou
         v_on = vin - a * std::sin(wr * td);
       }
     }
-    Prediction& pv = Add(out, E + "_v_turn_on_v", v_on, "Vds(td) = Vin - Ip*Zr*sin(wr*td)",
+    Prediction& pv = AddPrediction(out, E + "_v_turn_on_v", v_on, "Vds(td) = Vin - Ip*Zr*sin(wr*td)",
                          kSrcDerived, {"td = " + N(td) + " s: v_turn_on = " + N(v_on) + " V"}, E);
     pv.metric = "v_turn_on_v";
     pv.tolerance = {0.05, 2.0};
-    Prediction& vz = Add(out, E + "_zvs_charge", ip >= i_zvs ? 1 : 0, "ZVS iff Ip >= I_zvs",
+    Prediction& vz = AddPrediction(out, E + "_zvs_charge", ip >= i_zvs ? 1 : 0, "ZVS iff Ip >= I_zvs",
                          kSrcLagCharge, {"Ip = " + N(ip) + " A vs " + N(i_zvs) + " A"}, E);
     vz.metric = "zvs_full";
     vz.tolerance = {0, 0.5};

@@ -37,6 +37,32 @@ double ModelContext::Input(const std::string& name) const {
   return it == params->end() ? NAN : it->second;
 }
 
+Prediction& AddPrediction(std::vector<Prediction>* out, std::string name, double value,
+                          std::string formula, std::string source, std::vector<std::string> steps,
+                          std::string edge) {
+  Prediction p;
+  p.name = std::move(name);
+  p.value = value;
+  p.edge = std::move(edge);
+  p.formula = std::move(formula);
+  p.source = std::move(source);
+  p.steps = std::move(steps);
+  out->push_back(std::move(p));
+  return out->back();
+}
+
+bool CheckRequiredInputs(const TopologyModel& model, const ModelContext& context,
+                         std::string* error) {
+  for (const ModelInput& in : model.Inputs()) {
+    if (in.required && std::isnan(context.Input(in.name))) {
+      *error = "model '" + model.Name() + "' needs input '" + in.name + "' (" + in.description +
+               "): the template has no parameter '" + context.ParamOf(in.name) + "'";
+      return false;
+    }
+  }
+  return true;
+}
+
 namespace {
 
 // Every built-in model; a new topology adds its line here.

@@ -78,6 +78,18 @@ class TopologyModel {
                        std::string* error) const = 0;
 };
 
+/// Appends a prediction (no metric pairing yet) and returns it, so the caller
+/// can set `metric`, `tolerance` or `tag`. Shared by every model.
+Prediction& AddPrediction(std::vector<Prediction>* out, std::string name, double value,
+                          std::string formula, std::string source, std::vector<std::string> steps,
+                          std::string edge = "");
+
+/// Checks that every required input of `model` has a value in `context`;
+/// otherwise fails with "model 'NAME' needs input 'x' (...): the template
+/// has no parameter 'p'".
+bool CheckRequiredInputs(const TopologyModel& model, const ModelContext& context,
+                         std::string* error);
+
 /// The model registered under `name` (case-insensitive), or nullptr.
 const TopologyModel* FindTopologyModel(const std::string& name);
 
