@@ -6,8 +6,8 @@
 
 namespace zvsmap {
 
-uint64_t Fnv1a64(const std::string& data, uint64_t seed) {
-  uint64_t h = seed;
+uint64_t Fnv1a64(const std::string& data, uint64_t basis) {
+  uint64_t h = basis;
   for (unsigned char c : data) {
     h ^= c;
     h *= 1099511628211ull;

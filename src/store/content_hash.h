@@ -10,9 +10,9 @@
 
 namespace zvsmap {
 
-/// 64-bit FNV-1a of `data`, continuing from `seed` (Fowler, Noll & Vo; the
+/// 64-bit FNV-1a of `data`, continuing from `basis` (Fowler, Noll & Vo; the
 /// offset basis and prime are the published 64-bit constants).
-uint64_t Fnv1a64(const std::string& data, uint64_t seed = 14695981039346656037ull);
+uint64_t Fnv1a64(const std::string& data, uint64_t basis = 14695981039346656037ull);
 
 /// 16 lower-case hex digits.
 std::string HexHash(uint64_t hash);
