@@ -1,6 +1,7 @@
 #include "sweep/sweep_parser.h"
 
 #include <gtest/gtest.h>
+#include <unistd.h>
 
 #include <cmath>
 #include <filesystem>
@@ -414,7 +415,9 @@ TEST_F(SweepParserTest, TextAndContentAreRefused) {
 class SweepFileTest : public ::testing::Test {
  protected:
   void SetUp() override {
-    dir_ = std::filesystem::path(::testing::TempDir()) / "zvsmap_sweep_file_test";
+    // One folder per test process: CTest runs these tests in parallel.
+    dir_ = std::filesystem::path(::testing::TempDir()) /
+           ("zvsmap_sweep_file_test_" + std::to_string(getpid()));
     std::filesystem::remove_all(dir_);
     std::filesystem::create_directories(dir_ / "sweeps");
     std::filesystem::create_directories(dir_ / "netlists");
