@@ -245,15 +245,7 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
       y_hi = std::max(y_hi, v);
     }
   }
-  if (!std::isfinite(y_lo)) y_lo = 0, y_hi = 1;
-  if (y_hi - y_lo <= 0) {
-    double pad = y_lo == 0 ? 1 : std::fabs(y_lo) * 0.1;
-    y_lo -= pad;
-    y_hi += pad;
-  }
-  double pad = (y_hi - y_lo) * 0.08;
-  y_lo -= pad;
-  y_hi += pad;
+  PadAxisRange(&y_lo, &y_hi);
   double xs_lo = fx(x_lo), xs_hi = fx(x_hi);
   if (xs_hi == xs_lo) xs_hi = xs_lo + 1;
   auto px = [&](double v) { return kLeft + (fx(v) - xs_lo) / (xs_hi - xs_lo) * plot_w; };

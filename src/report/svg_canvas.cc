@@ -1,5 +1,6 @@
 #include "report/svg_canvas.h"
 
+#include <cmath>
 #include <cstdio>
 #include <sstream>
 
@@ -95,6 +96,18 @@ std::string SvgCanvas::ToString() const {
   std::ostringstream out;
   doc_.save(out, "  ", pugi::format_default | pugi::format_no_declaration);
   return out.str();
+}
+
+void PadAxisRange(double* lo, double* hi) {
+  if (!std::isfinite(*lo)) *lo = 0, *hi = 1;
+  if (*hi - *lo <= 0) {
+    double pad = *lo == 0 ? 1 : std::fabs(*lo) * 0.1;
+    *lo -= pad;
+    *hi += pad;
+  }
+  double pad = (*hi - *lo) * 0.08;
+  *lo -= pad;
+  *hi += pad;
 }
 
 }  // namespace zvsmap

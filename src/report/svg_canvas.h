@@ -40,4 +40,9 @@ class SvgCanvas {
   pugi::xml_node svg_;
 };
 
+/// Makes [lo, hi] a drawable axis range: 0..1 when no finite value was seen
+/// (lo = +inf), a span of 10 % around a single value (or -1..1 around 0),
+/// then 8 % headroom on each side.
+void PadAxisRange(double* lo, double* hi);
+
 }  // namespace zvsmap

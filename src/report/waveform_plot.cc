@@ -80,15 +80,7 @@ void DrawPanel(SvgCanvas& svg, double top, const std::vector<double>& t_ns, doub
       y_hi = std::max(y_hi, v);
     }
   }
-  if (!std::isfinite(y_lo)) y_lo = 0, y_hi = 1;
-  if (y_hi - y_lo <= 0) {
-    double pad = y_lo == 0 ? 1 : std::fabs(y_lo) * 0.1;
-    y_lo -= pad;
-    y_hi += pad;
-  }
-  double pad = (y_hi - y_lo) * 0.08;
-  y_lo -= pad;
-  y_hi += pad;
+  PadAxisRange(&y_lo, &y_hi);
   auto px = [&](double x) { return kLeft + (x - x_lo) / (x_hi - x_lo) * plot_w; };
   auto py = [&](double v) { return top + (y_hi - v) / (y_hi - y_lo) * kPanel; };
 
