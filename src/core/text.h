@@ -8,6 +8,9 @@ namespace zvsmap {
 /// ASCII lower case (SPICE names and our keywords are case-insensitive).
 std::string Lower(std::string s);
 
+/// True when `a` and `b` are equal ignoring ASCII case (SPICE names).
+bool SameName(const std::string& a, const std::string& b);
+
 /// `s` without leading and trailing blanks (space, tab, CR, LF).
 std::string Trim(const std::string& s);
 

@@ -5,22 +5,12 @@
 
 #include "core/expression.h"
 #include "core/spice_number.h"
+#include "core/text.h"
 #include "report/zvs_boundary.h"
 
 namespace zvsmap {
 
 namespace {
-
-bool SameName(const std::string& a, const std::string& b) {
-  if (a.size() != b.size()) return false;
-  for (size_t i = 0; i < a.size(); ++i) {
-    if (std::tolower(static_cast<unsigned char>(a[i])) !=
-        std::tolower(static_cast<unsigned char>(b[i]))) {
-      return false;
-    }
-  }
-  return true;
-}
 
 std::string Place(const SourceLocation& where) {
   std::string out = where.file.empty() ? "sweep" : where.file;
