@@ -13,6 +13,7 @@
 namespace zvsmap {
 namespace {
 
+using testing_support::EdgeOf;
 using testing_support::SharedNgspice;
 using testing_support::SourcePath;
 
@@ -33,11 +34,6 @@ class BoostReferenceTest : public ::testing::Test {
     PointEvaluator evaluator(spec_, tmpl_);
     Point p{0, std::move(values)};
     return evaluator.Evaluate(p, SharedNgspice(), waves);
-  }
-  static const EdgeMeasurement& Edge(const PointResult& r, const std::string& name) {
-    for (const auto& e : r.edges)
-      if (e.edge == name) return e;
-    throw Error("edge " + name + " missing");
   }
   // The input voltage the open-loop stage settled at (mean of v(in)).
   static double MeanInput(const Waveforms& waves) {
@@ -65,7 +61,7 @@ TEST_F(BoostReferenceTest, LowSideZvsBoundaryFollowsTheChargeCondition) {
     PointResult r = Run({{"Vin", 300}, {"Iout", 1}, {"IR", ir}}, &waves);
     ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
     const double vin = MeanInput(waves);
-    const EdgeMeasurement& e = Edge(r, "low_on");
+    const EdgeMeasurement& e = EdgeOf(r, "low_on");
     const double rail = e.Get("rail_v");
     const double i_zvs = std::sqrt(2 * kCoss * rail * std::max(0.0, 2 * vin - rail) / kL);
     // i_commutated_a > 0 flows out of the node: the reverse inductor current.
@@ -94,13 +90,13 @@ TEST_F(BoostReferenceTest, LowSideZvsIsFreeBelowHalfTheOutputVoltage) {
     PointResult r = Run({{"Vin", vin}, {"Iout", 1}, {"IR", 0}}, &waves);
     ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
     ASSERT_LE(MeanInput(waves), kVout / 2);
-    const EdgeMeasurement& low = Edge(r, "low_on");
+    const EdgeMeasurement& low = EdgeOf(r, "low_on");
     // No reverse current to speak of (the open-loop stage settles within a few
     // tenths of an ampere of IR = 0); at Vin = 300 V the condition would ask
     // for sqrt(2*Coss*Vout*(2*Vin - Vout)/L) = 0.57 A.
     EXPECT_LT(low.Get("i_commutated_a"), 0.3) << "Vin = " << vin;
     EXPECT_EQ(low.zvs, ZvsClass::kFull) << "Vin = " << vin;
-    EXPECT_EQ(Edge(r, "high_on").zvs, ZvsClass::kFull) << "Vin = " << vin;
+    EXPECT_EQ(EdgeOf(r, "high_on").zvs, ZvsClass::kFull) << "Vin = " << vin;
   }
 }
 

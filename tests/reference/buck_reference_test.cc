@@ -12,6 +12,7 @@
 namespace zvsmap {
 namespace {
 
+using testing_support::EdgeOf;
 using testing_support::SharedNgspice;
 using testing_support::SourcePath;
 
@@ -27,11 +28,6 @@ class BuckReferenceTest : public ::testing::Test {
     PointEvaluator evaluator(spec_, tmpl_);
     Point p{0, std::move(values)};
     return evaluator.Evaluate(p, SharedNgspice(), waves);
-  }
-  static const EdgeMeasurement& Edge(const PointResult& r, const std::string& name) {
-    for (const auto& e : r.edges)
-      if (e.edge == name) return e;
-    throw Error("edge " + name + " missing");
   }
   Template tmpl_;
   SweepSpec spec_;
@@ -68,7 +64,7 @@ TEST_F(BuckReferenceTest, LowSideTransitionMatchesConstantCurrentSlew) {
   const double c = 1e-9, vin = 48;
   PointResult r = Run({{"Vin", vin}, {"Vout", 12}, {"L", 1e-6}, {"Iout", 5}, {"Coss", c}});
   ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
-  const EdgeMeasurement& e = Edge(r, "low_on");
+  const EdgeMeasurement& e = EdgeOf(r, "low_on");
   double current = e.Get("i_commutated_a");
   ASSERT_GT(current, 10.0);  // a large current: peak ~ 14 A (REFERENCES.md sec. 8)
   double expected = 0.8 * 2 * c * vin / std::fabs(current);
@@ -103,7 +99,7 @@ TEST_F(BuckReferenceTest, HighSideZvsBoundaryFollowsTheResonantThreshold) {
     for (double v : vout) vo += v;
     vo /= static_cast<double>(vout.size());
     double threshold = std::sqrt(2 * coss * vin * (vin - 2 * vo) / l);
-    const EdgeMeasurement& e = Edge(r, "high_on");
+    const EdgeMeasurement& e = EdgeOf(r, "high_on");
     double ratio = -e.Get("i_commutated_a") / threshold;
     if (e.zvs == ZvsClass::kFull) {
       last_full = ratio;

@@ -16,6 +16,7 @@
 namespace zvsmap {
 namespace {
 
+using testing_support::EdgeOf;
 using testing_support::SharedNgspice;
 using testing_support::SourcePath;
 
@@ -40,12 +41,6 @@ class FullBridgeReferenceTest : public ::testing::Test {
     Point p{0, std::move(values)};
     return evaluator.Evaluate(p, SharedNgspice(), waves);
   }
-  static const EdgeMeasurement& Edge(const PointResult& r, const std::string& cell,
-                                     const std::string& edge) {
-    for (const auto& e : r.edges)
-      if (e.cell == cell && e.edge == edge) return e;
-    throw Error("edge " + cell + "." + edge + " missing");
-  }
   const CellSpec& Cell(const std::string& name) const {
     for (const auto& c : tmpl_.cells)
       if (c.name == name) return c;
@@ -63,7 +58,7 @@ TEST_F(FullBridgeReferenceTest, BothLegsHaveBothEdgesMeasured) {
   ASSERT_EQ(r.edges.size(), 4u);
   for (const char* cell : {"lead", "lag"}) {
     for (const char* edge : {"high_on", "low_on"}) {
-      EXPECT_EQ(Edge(r, cell, edge).zvs, ZvsClass::kFull) << cell << "." << edge;
+      EXPECT_EQ(EdgeOf(r, edge, cell).zvs, ZvsClass::kFull) << cell << "." << edge;
     }
   }
 }
@@ -79,7 +74,7 @@ TEST_F(FullBridgeReferenceTest, LaggingLegTransitionFollowsTheResonantArcsine) {
   ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
   const double ceq = 2 * kCoss + ctr, zr = std::sqrt(lr / ceq), wr = 1 / std::sqrt(lr * ceq);
   for (const char* edge : {"high_on", "low_on"}) {
-    const EdgeMeasurement& e = Edge(r, "lag", edge);
+    const EdgeMeasurement& e = EdgeOf(r, edge, "lag");
     const double ip = std::fabs(e.Get("i_commutated_a"));
     ASSERT_GT(ip * zr, kVin) << edge << ": the resonance must reach the rail";
     const double expected = std::asin(kVin / (ip * zr)) / wr;
@@ -107,7 +102,7 @@ TEST_F(FullBridgeReferenceTest, LeadingLegTransitionIsTheChargeOverTheReflectedC
     std::vector<EdgeTiming> timings = FindEdges(Cell("lead"), waves, 0.02 / kFs);
     ASSERT_EQ(timings.size(), 2u);
     for (const EdgeTiming& timing : timings) {
-      const EdgeMeasurement& e = Edge(r, "lead", timing.edge);
+      const EdgeMeasurement& e = EdgeOf(r, timing.edge, "lead");
       const double ip = std::fabs(waves.At("i(vpa)", timing.t_off_s - 2e-9));
       const double expected = 0.8 * (2 * kCoss * kVin + ctr * kVin) / ip;
       EXPECT_NEAR(e.Get("t_transition_s"), expected, 0.05 * expected)
@@ -171,7 +166,7 @@ TEST_F(FullBridgeReferenceTest, LaggingLegZvsBoundaryFollowsTheChargeCondition) 
   for (double io = 10; io <= 16.01; io += 1.0) {
     PointResult r = Run({{"Lr", lr}, {"Iout", io}});
     ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
-    const EdgeMeasurement& e = Edge(r, "lag", "high_on");
+    const EdgeMeasurement& e = EdgeOf(r, "high_on", "lag");
     const double ratio = std::fabs(e.Get("i_commutated_a")) / i_zvs;
     if (e.zvs == ZvsClass::kFull) {
       if (std::isnan(first_full)) first_full = ratio;

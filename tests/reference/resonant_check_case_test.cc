@@ -14,16 +14,11 @@
 namespace zvsmap {
 namespace {
 
+using testing_support::EdgeOf;
 using testing_support::SharedNgspice;
 using testing_support::SourcePath;
 
 constexpr double kPeriod = 2e-6;
-
-const EdgeMeasurement& Edge(const PointResult& r, const std::string& name) {
-  for (const auto& e : r.edges)
-    if (e.edge == name) return e;
-  throw Error("edge " + name + " missing");
-}
 
 // The analysis assumes ideal, lossless switches: Ron and the diode series
 // resistance near zero; Vf 0.3 V keeps the diodes off during the swing
@@ -77,7 +72,7 @@ TEST(ResonantCheckCaseTest, RippleValleyAndPeakCurrents) {
   // The low-side swing starts from the peak current: 6.82 ns (resonant; the
   // linear approximation 2*C*Vin/Ipk gives 6.86 ns). REFERENCES.md sec. 8;
   // Mohan et al. (2003), soft-switching chapter.
-  const EdgeMeasurement& down = Edge(r, "low_on");
+  const EdgeMeasurement& down = EdgeOf(r, "low_on");
   EXPECT_NEAR(down.Get("t_zvs_s"), 6.82e-9, 0.02 * 6.82e-9);
   EXPECT_EQ(down.Get("ringback"), 0.0);
   EXPECT_EQ(down.zvs, ZvsClass::kFull);
@@ -91,10 +86,10 @@ TEST(ResonantCheckCaseTest, HighSideTransitionAndRingBack) {
   Waveforms waves;
   PointResult r = RunCase(5, &waves);
   ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
-  double i0 = -Edge(r, "high_on").Get("i_commutated_a");
+  double i0 = -EdgeOf(r, "high_on").Get("i_commutated_a");
   r = RunCase(5 - (4.0 - i0), &waves);
   ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
-  const EdgeMeasurement& up = Edge(r, "high_on");
+  const EdgeMeasurement& up = EdgeOf(r, "high_on");
   ASSERT_NEAR(-up.Get("i_commutated_a"), 4.0, 0.005 * 4.0);
 
   // 0 -> Vin in 24.32 ns, 3.70 A left at the end, longest dead time before

@@ -14,6 +14,7 @@
 namespace zvsmap {
 namespace {
 
+using testing_support::EdgeOf;
 using testing_support::SharedNgspice;
 using testing_support::SourcePath;
 
@@ -39,11 +40,6 @@ class SwitchModelsTest : public ::testing::Test {
     std::vector<PointResult> out;
     for (const Point& p : sweep->points) out.push_back(evaluator.Evaluate(p, SharedNgspice()));
     return out;
-  }
-  static const EdgeMeasurement& Edge(const PointResult& r, const std::string& name) {
-    for (const auto& e : r.edges)
-      if (e.edge == name) return e;
-    throw Error("edge " + name + " missing");
   }
 };
 
@@ -150,8 +146,8 @@ TEST_F(SwitchModelsTest, UserSubcircuitWithAnotherPinOrderMatchesTheGenericModel
     ASSERT_EQ(generic.status, PointStatus::kOk) << generic.reason;
     ASSERT_EQ(mine.status, PointStatus::kOk) << mine.reason;
     for (const char* edge : {"high_on", "low_on"}) {
-      const EdgeMeasurement& a = Edge(generic, edge);
-      const EdgeMeasurement& b = Edge(mine, edge);
+      const EdgeMeasurement& a = EdgeOf(generic, edge);
+      const EdgeMeasurement& b = EdgeOf(mine, edge);
       EXPECT_EQ(a.zvs, b.zvs) << edge << " at point " << load;
       for (const char* metric : {"v_turn_on_v", "i_commutated_a", "e_on_j", "e_off_j"}) {
         double x = a.Get(metric), y = b.Get(metric);
@@ -161,8 +157,8 @@ TEST_F(SwitchModelsTest, UserSubcircuitWithAnotherPinOrderMatchesTheGenericModel
     }
   }
   // The map has both classes (soft at no load, hard at 12 A on the high side).
-  EXPECT_EQ(Edge(results[0], "high_on").zvs, ZvsClass::kFull);
-  EXPECT_EQ(Edge(results[1], "high_on").zvs, ZvsClass::kHard);
+  EXPECT_EQ(EdgeOf(results[0], "high_on").zvs, ZvsClass::kFull);
+  EXPECT_EQ(EdgeOf(results[1], "high_on").zvs, ZvsClass::kHard);
 }
 
 TEST_F(SwitchModelsTest, SiliconRecoveryAddsToTheHardTurnOnEnergyWideBandgapDoesNot) {
@@ -170,9 +166,9 @@ TEST_F(SwitchModelsTest, SiliconRecoveryAddsToTheHardTurnOnEnergyWideBandgapDoes
   std::vector<PointResult> r = RunSweep("tests/netlist/fixtures/recovery_buck.xml", &sweep);
   ASSERT_EQ(r.size(), 3u);  // si (tt_s = 100 ns), si_no_rr (tt_s = 0), wbg
   for (const auto& p : r) ASSERT_EQ(p.status, PointStatus::kOk) << p.reason;
-  const EdgeMeasurement& si = Edge(r[0], "high_on");
-  const EdgeMeasurement& si0 = Edge(r[1], "high_on");
-  const EdgeMeasurement& wbg = Edge(r[2], "high_on");
+  const EdgeMeasurement& si = EdgeOf(r[0], "high_on");
+  const EdgeMeasurement& si0 = EdgeOf(r[1], "high_on");
+  const EdgeMeasurement& wbg = EdgeOf(r[2], "high_on");
   for (const auto* e : {&si, &si0, &wbg}) ASSERT_EQ(e->zvs, ZvsClass::kHard);
   const double tt = 100e-9, vin = 48;
   // Charge-control diode model: stored charge tt * I_F, recovered at the full

@@ -3,6 +3,8 @@
 
 #include <string>
 
+#include "core/diagnostic.h"
+#include "run/point_result.h"
 #include "sim/ngspice_simulator.h"
 
 namespace zvsmap::testing_support {
@@ -16,6 +18,15 @@ inline NgspiceSimulator& SharedNgspice() {
 /// Absolute path of a file in the source tree (netlists/, sweeps/, tests/).
 inline std::string SourcePath(const std::string& relative) {
   return std::string(ZVSMAP_SOURCE_DIR) + "/" + relative;
+}
+
+/// The measurement of edge `edge` ("high_on"/"low_on") of `cell` ("" = the
+/// first cell that has it); throws when the point has no such edge.
+inline const EdgeMeasurement& EdgeOf(const PointResult& r, const std::string& edge,
+                                     const std::string& cell = "") {
+  for (const auto& e : r.edges)
+    if (e.edge == edge && (cell.empty() || e.cell == cell)) return e;
+  throw Error("edge " + (cell.empty() ? "" : cell + ".") + edge + " missing");
 }
 
 }  // namespace zvsmap::testing_support
