@@ -140,7 +140,8 @@ int Run(const Options& opts) {
   PointEvaluator evaluator(sweep.spec, sweep.tmpl);
   std::vector<std::string> hashes = PointContentHashes(sweep, evaluator);
   std::vector<StoredPointKey> stored;
-  if (!store->ListPoints(&stored, &error)) {
+  if (!RekeyStoredResults(*store, sweep.points, hashes, &error) ||
+      !store->ListPoints(&stored, &error)) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitInternal;
   }

@@ -8,7 +8,10 @@
 #include <set>
 #include <sstream>
 
+#include "core/spice_number.h"
 #include "core/text.h"
+#include "netlist/deck_rules.h"
+#include "netlist/include_closure.h"
 
 namespace zvsmap {
 
@@ -124,30 +127,12 @@ std::string GenericLibraryPath() {
   return std::string(ZVSMAP_SOURCE_DIR) + "/netlists/switches.lib";
 }
 
-bool ScanSubckts(const std::string& path, std::vector<SubcktInfo>* out, std::string* error) {
-  out->clear();
-  std::ifstream in(path, std::ios::binary);
-  if (!in) {
-    *error = "cannot read '" + path + "'";
-    return false;
-  }
-  // Logical lines (continuations joined) with their first physical line, and
-  // the physical text for copying blocks.
-  std::vector<std::pair<int, std::string>> logical;
-  std::vector<std::string> physical;
-  std::string line;
-  int number = 0;
-  while (std::getline(in, line)) {
-    ++number;
-    if (!line.empty() && line.back() == '\r') line.pop_back();
-    physical.push_back(line);
-    size_t b = line.find_first_not_of(" \t");
-    if (b != std::string::npos && line[b] == '+' && !logical.empty()) {
-      logical.back().second += " " + line.substr(b + 1);
-    } else {
-      logical.emplace_back(number, line);
-    }
-  }
+namespace {
+
+// Subcircuits of logical cards ((first line, text) pairs); `physical` (may be
+// empty) gives the text of the blocks.
+void ScanLogical(const std::string& path, const std::vector<std::pair<int, std::string>>& logical,
+                 const std::vector<std::string>& physical, std::vector<SubcktInfo>* out) {
   SubcktInfo* open = nullptr;
   int depth = 0;
   for (const auto& [first, text] : logical) {
@@ -184,16 +169,127 @@ bool ScanSubckts(const std::string& path, std::vector<SubcktInfo>* out, std::str
     }
     if (depth == 1 && head == "vch") open->has_vch = true;
   }
+}
+
+// Subcircuits of assembled cards (each keeps its own file:line).
+std::vector<SubcktInfo> ScanCards(const std::vector<DeckLine>& cards) {
+  std::vector<SubcktInfo> out;
+  std::vector<std::pair<int, std::string>> logical;
+  size_t begin = 0;
+  auto flush = [&](size_t end) {
+    if (begin < end) ScanLogical(cards[begin].origin.file, logical, {}, &out);
+    logical.clear();
+    begin = end;
+  };
+  for (size_t i = 0; i < cards.size(); ++i) {
+    if (cards[i].origin.file != cards[begin].origin.file) flush(i);
+    logical.emplace_back(cards[i].origin.line, cards[i].text);
+  }
+  flush(cards.size());
+  return out;
+}
+
+}  // namespace
+
+bool ScanSubckts(const std::string& path, std::vector<SubcktInfo>* out, std::string* error) {
+  out->clear();
+  std::ifstream in(path, std::ios::binary);
+  if (!in) {
+    *error = "cannot read '" + path + "'";
+    return false;
+  }
+  // Logical lines (continuations joined) with their first physical line, and
+  // the physical text for copying blocks.
+  std::vector<std::pair<int, std::string>> logical;
+  std::vector<std::string> physical;
+  std::string line;
+  int number = 0;
+  while (std::getline(in, line)) {
+    ++number;
+    if (!line.empty() && line.back() == '\r') line.pop_back();
+    physical.push_back(line);
+    size_t b = line.find_first_not_of(" \t");
+    if (b != std::string::npos && line[b] == '+' && !logical.empty()) {
+      logical.back().second += " " + line.substr(b + 1);
+    } else {
+      logical.emplace_back(number, line);
+    }
+  }
+  ScanLogical(path, logical, physical, out);
   return true;
 }
+
+namespace {
+
+// Every sweep-file value of a device that reaches the deck stays one token
+// on its card: no line break or control character can start a new card.
+bool CheckDeviceTokens(const DeviceSpec& spec, Diagnostic* error) {
+  auto fail = [&](const SourceLocation& where, const std::string& what, const std::string& why) {
+    *error = Diagnostic{where, "device '" + spec.name + "': " + what + " " + why, {}};
+    return false;
+  };
+  auto control = [](const std::string& text) {
+    for (unsigned char c : text) {
+      if (c < 0x20 || c == 0x7f) return DescribeChar(c);
+    }
+    return std::string();
+  };
+  std::string bad = control(spec.file_as_written);
+  if (!bad.empty()) return fail(spec.file_where, "the file name", "holds " + bad);
+  bad = control(spec.name);
+  if (!bad.empty()) return fail(spec.where, "the name", "holds " + bad);
+  if (!spec.section.empty() && !IsNameToken(spec.section)) {
+    return fail(spec.where, "section '" + spec.section + "'",
+                "is not a library section name (letters, digits and _ . - only)");
+  }
+  if (!IsNameToken(spec.subckt)) {
+    return fail(spec.subckt_where, "subckt '" + spec.subckt + "'", "is not a subcircuit name");
+  }
+  std::string why;
+  if (!CheckParamListToken(spec.params, &why)) return fail(spec.where, "params", why);
+  for (const PinTie& tie : spec.pins) {
+    const std::string& to = tie.to;
+    bool ok = to == "d" || to == "g" || to == "s" ||
+              (to.size() > 1 && to[0] == '@' && IsNameToken(to.substr(1))) ||
+              (FindForbiddenChar(to, false) == std::string::npos &&
+               to.find_first_not_of("0123456789.+-eEafgkmnptuAFGKMNPTU") == std::string::npos &&
+               ParseSpiceNumber(to).has_value());
+    if (!ok)
+      return fail(spec.pins_where, "pin tie '" + to + "'", "is not d, g, s, @node or a number");
+  }
+  return true;
+}
+
+// The device's own params must be declared by its subcircuit.
+bool CheckDeclaredParams(const DeviceSpec& spec, const SubcktInfo& sub, Diagnostic* error) {
+  for (const std::string& p : Tokens(spec.params)) {
+    std::string name = ParamName(p);
+    if (std::find(sub.params.begin(), sub.params.end(), name) != sub.params.end()) continue;
+    std::string best = ClosestName(name, sub.params);
+    *error = Diagnostic{spec.where,
+                        "device '" + spec.name + "': params names '" + name + "', which " +
+                            "subcircuit '" + sub.name + "' (" + Where(sub.where) +
+                            ") does not declare (" +
+                            (sub.params.empty() ? std::string("it declares no params")
+                                                : "it declares: " + Join(sub.params, ", ")) +
+                            (best.empty() ? "" : "; did you mean '" + best + "'?") + ")",
+                        {}};
+    return false;
+  }
+  return true;
+}
+
+}  // namespace
 
 bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* error) {
   out->spec = spec;
   out->targets.clear();
+  out->model_cards.clear();
   auto fail = [&](const SourceLocation& where, const std::string& message) {
     *error = Diagnostic{where, message, {}};
     return false;
   };
+  if (!CheckDeviceTokens(spec, error)) return false;
   std::string file = spec.generic ? GenericLibraryPath() : spec.file;
   std::error_code ec;
   if (!std::filesystem::is_regular_file(file, ec)) {
@@ -204,7 +300,22 @@ bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* erro
   }
   std::vector<SubcktInfo> found;
   std::string message;
-  if (!ScanSubckts(file, &found, &message)) return fail(spec.file_where, message);
+  if (spec.generic) {
+    if (!ScanSubckts(file, &found, &message)) return fail(spec.file_where, message);
+  } else {
+    // The model file and all it includes, read and checked now, inlined later.
+    bool read = spec.section.empty()
+                    ? ExpandNetlistFile(file, spec.file_where, "", &out->model_cards, error)
+                    : ExpandLibrarySection(file, spec.section, spec.file_where, "",
+                                           &out->model_cards, error);
+    if (!read) {
+      if (error->where.file == spec.file_where.file && error->where.line == spec.file_where.line) {
+        error->message = "device '" + spec.name + "': " + error->message;
+      }
+      return false;
+    }
+    found = ScanCards(out->model_cards);
+  }
   auto it = std::find_if(found.begin(), found.end(),
                          [&](const SubcktInfo& s) { return Lower(s.name) == Lower(spec.subckt); });
   if (it == found.end()) {
@@ -221,6 +332,7 @@ bool ResolveDevice(const DeviceSpec& spec, ResolvedDevice* out, Diagnostic* erro
   }
   out->subckt = *it;
   const SubcktInfo& sub = out->subckt;
+  if (!CheckDeclaredParams(spec, sub, error)) return false;
   std::string which = "subcircuit '" + sub.name + "' (" + Where(sub.where) + ")";
   std::string pins = "pins (" + Join(sub.pins, " ") + ")";
   if (spec.generic) {
@@ -327,10 +439,6 @@ DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& i
         defined_subckts.end()) {
       out.definitions.push_back("* generic switch model from netlists/switches.lib\n" + sub.text);
     }
-  } else if (!device.spec.section.empty()) {
-    out.definitions.push_back(".lib \"" + device.spec.file + "\" " + device.spec.section + "\n");
-  } else {
-    out.definitions.push_back(".include \"" + device.spec.file + "\"\n");
   }
   // Parameters: of the template instance's only the initial drain-source
   // voltage (a property of the circuit, not of the device), if the subcircuit
@@ -393,13 +501,15 @@ DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& i
   return out;
 }
 
-bool ApplyDevices(const Template& tmpl, const std::vector<ResolvedDevice>& devices,
-                  const std::vector<std::pair<std::string, std::string>>& choice,
-                  std::string* netlist, std::string* error) {
+bool ApplyDevicesToDeck(const Template& tmpl, const std::vector<ResolvedDevice>& devices,
+                        const std::vector<std::pair<std::string, std::string>>& choice, Deck* deck,
+                        std::string* error) {
   if (choice.empty()) return true;
   std::vector<std::string> defined = TemplateSubckts(tmpl);
-  std::map<std::string, std::string> replacement;  // lower-case instance -> new line
-  std::vector<std::string> definitions;
+  std::map<std::string, std::pair<std::string, SourceLocation>> replacement;  // instance -> line
+  Deck definitions;
+  std::vector<std::string> seen_text;
+  std::set<std::string> seen_models;
   for (const auto& [role, name] : choice) {
     auto dev = std::find_if(devices.begin(), devices.end(), [&](const ResolvedDevice& d) {
       return Lower(d.spec.name) == Lower(name);
@@ -419,30 +529,54 @@ bool ApplyDevices(const Template& tmpl, const std::vector<ResolvedDevice>& devic
       *error = "instance '" + instance + "' not found in '" + tmpl.path + "'";
       return false;
     }
+    // A user model file's cards once per file and section.
+    std::string model_key = dev->spec.file + "\n" + Lower(dev->spec.section);
+    if (!dev->spec.generic && seen_models.insert(model_key).second) {
+      definitions.lines.insert(definitions.lines.end(), dev->model_cards.begin(),
+                               dev->model_cards.end());
+    }
     DeviceLines lines = InstantiateDevice(*dev, parsed.name, parsed.nodes[0], parsed.nodes[1],
                                           parsed.nodes[2], parsed.params, defined);
+    SourceLocation origin = dev->spec.generic ? dev->subckt.where : dev->spec.where;
     for (const auto& d : lines.definitions) {
-      if (std::find(definitions.begin(), definitions.end(), d) == definitions.end())
-        definitions.push_back(d);
+      if (std::find(seen_text.begin(), seen_text.end(), d) != seen_text.end()) continue;
+      seen_text.push_back(d);
+      definitions.AddText(d, origin);
     }
-    replacement[Lower(parsed.name)] = lines.instance;
+    replacement[Lower(parsed.name)] = {lines.instance, dev->spec.where};
   }
-  std::istringstream in(*netlist);
-  std::ostringstream out;
-  std::string text;
-  bool first = true;
-  while (std::getline(in, text)) {
-    if (first) {
-      out << text << "\n* zvsmap switch models\n";
-      for (const auto& d : definitions) out << d;
-      first = false;
+  Deck out;
+  int depth = 0;
+  for (size_t i = 0; i < deck->lines.size(); ++i) {
+    const DeckLine& l = deck->lines[i];
+    if (i == 0) {
+      out.lines.push_back(l);
+      out.AddGenerated("* zvsmap switch models");
+      out.lines.insert(out.lines.end(), definitions.lines.begin(), definitions.lines.end());
       continue;
     }
-    std::vector<std::string> t = Tokens(text);
-    auto it = t.empty() ? replacement.end() : replacement.find(Lower(t[0]));
-    out << (it == replacement.end() ? text : it->second) << "\n";
+    std::vector<std::string> t = Tokens(l.text);
+    std::string head = t.empty() ? "" : Lower(t[0]);
+    if (head == ".subckt") ++depth;
+    if (head == ".ends" && depth > 0) --depth;
+    auto it = depth > 0 || t.empty() ? replacement.end() : replacement.find(head);
+    if (it == replacement.end()) {
+      out.lines.push_back(l);
+    } else {
+      out.lines.push_back({it->second.first, l.origin});
+    }
   }
-  *netlist = out.str();
+  *deck = std::move(out);
+  return true;
+}
+
+bool ApplyDevices(const Template& tmpl, const std::vector<ResolvedDevice>& devices,
+                  const std::vector<std::pair<std::string, std::string>>& choice,
+                  std::string* netlist, std::string* error) {
+  Deck deck;
+  deck.AddText(*netlist, SourceLocation{});
+  if (!ApplyDevicesToDeck(tmpl, devices, choice, &deck, error)) return false;
+  *netlist = deck.Text();
   return true;
 }
 

@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "core/diagnostic.h"
+#include "netlist/deck.h"
 #include "netlist/template.h"
 #include "sweep/device_spec.h"
 #include "sweep/sweep_spec.h"
@@ -38,9 +39,15 @@ struct ResolvedDevice {
   DeviceSpec spec;
   SubcktInfo subckt;
   std::vector<std::string> targets;
+  /// The user's model file (or its `section`) with its includes inlined and
+  /// every card checked, tagged with file:line (empty for generic models).
+  std::vector<DeckLine> model_cards;
 };
 
-/// Checks one device before anything runs: the model file exists, the
+/// Checks one device before anything runs: its sweep-file values are tokens
+/// that stay on their card (no line breaks or control characters; `params`
+/// a list of name=value whose names the subcircuit declares), the model file
+/// exists, is text and passes the deck rules with everything it includes, the
 /// subcircuit is in it (case-insensitive), the pin map matches its pins by
 /// count or names, every pin is tied and drain, gate and source are each used.
 /// Errors point at the sweep file's attribute and name the model file:line.
@@ -53,16 +60,15 @@ bool ResolveSweepDevices(const SweepSpec& spec, const Template& tmpl,
                          std::vector<ResolvedDevice>* out, std::vector<Diagnostic>* errors);
 
 /// The lines that put `device` in a netlist as the three-terminal switch
-/// `instance` between `drain`, `gate`, `source`: `definitions` (model file
-/// .include/.lib, or the generic subcircuit's text unless `defined_subckts`
-/// already has it; sources for fixed-voltage pins; a wrapper when the
-/// subcircuit has no `vch`) and the `instance` line. `inherited` are
-/// name=value parameters of the template's instance: only `vds0_v` (the
-/// initial drain-source voltage, a property of the circuit) is kept, and only
-/// when the subcircuit declares it; then the device's own params are added.
-/// Without `vch` inside the user's subcircuit, a wrapper adds one in series
-/// with the drain, so i(v.<instance>.vch) is then the drain terminal current
-/// (channel plus output capacitance plus reverse conduction).
+/// `instance` between `drain`, `gate`, `source`: `definitions` (the generic
+/// subcircuit's text unless `defined_subckts` already has it; a user model's
+/// cards are `model_cards`, added by ApplyDevices; sources for fixed-voltage pins; a wrapper when
+/// the subcircuit has no `vch`) and the `instance` line. `inherited` are name=value parameters of
+/// the template's instance: only `vds0_v` (the initial drain-source voltage, a property of the
+/// circuit) is kept, and only when the subcircuit declares it; then the device's own params are
+/// added. Without `vch` inside the user's subcircuit, a wrapper adds one in series with the drain,
+/// so i(v.<instance>.vch) is then the drain terminal current (channel plus output capacitance plus
+/// reverse conduction).
 struct DeviceLines {
   std::vector<std::string> definitions;
   std::string instance;
@@ -72,10 +78,17 @@ DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& i
                               const std::string& source, const std::vector<std::string>& inherited,
                               const std::vector<std::string>& defined_subckts);
 
-/// Rewrites a rendered netlist for a point's device choice ((role, device
-/// name) pairs, roles "cell.high"/"cell.low"): each role's switch instance is
-/// replaced and the definitions are inserted after the title. False with
-/// `error` for an unknown role or device (a bug once ResolveSweepDevices passed).
+/// Rewrites an assembled deck for a point's device choice ((role, device
+/// name) pairs, roles "cell.high"/"cell.low"): each role's switch instance
+/// (outside any .subckt) is replaced and the definitions (each used model
+/// file's cards once, then zvsmap's wrappers and tie sources, tagged with the
+/// sweep file's <device>) are inserted after the title. False with `error`
+/// for an unknown role or device (a bug once ResolveSweepDevices passed).
+bool ApplyDevicesToDeck(const Template& tmpl, const std::vector<ResolvedDevice>& devices,
+                        const std::vector<std::pair<std::string, std::string>>& choice, Deck* deck,
+                        std::string* error);
+
+/// ApplyDevicesToDeck on netlist text (lines without origins).
 bool ApplyDevices(const Template& tmpl, const std::vector<ResolvedDevice>& devices,
                   const std::vector<std::pair<std::string, std::string>>& choice,
                   std::string* netlist, std::string* error);

@@ -1,7 +1,6 @@
 #include "netlist/render.h"
 
 #include <cctype>
-#include <set>
 #include <sstream>
 
 #include "core/spice_number.h"
@@ -77,53 +76,44 @@ bool ResolvePeriod(const Template& tmpl, const Variables& resolved, double* peri
   return true;
 }
 
-std::string RenderNetlist(const Template& tmpl, const Variables& resolved, const TranSettings& tran,
-                          const std::vector<std::string>& vectors) {
-  static const std::set<std::string> kDropped = {".tran", ".save",    ".print", ".plot", ".probe",
-                                                 ".meas", ".measure", ".end",   ".four", ".op"};
-  std::ostringstream out;
-  bool first = true;
-  bool in_control = false;
+Deck RenderDeck(const Template& tmpl, const Variables& resolved, const TranSettings& tran,
+                const std::vector<std::string>& vectors) {
+  Deck deck;
+  // SPICE reads the first line as the title (checked by the include closure).
+  std::string title = tmpl.lines.empty() ? "" : Trim(tmpl.lines.front().second);
+  deck.lines.push_back({title.empty() ? "zvsmap deck" : title, {tmpl.path, 1, 0}});
   bool params_written = false;
-  for (const auto& [line, text] : tmpl.lines) {
-    (void)line;
-    std::string cmd = DotCommand(text);
-    if (first) {
-      // SPICE treats the first line as the title.
-      out << text << "\n* rendered by zvsmap " << ZVSMAP_VERSION << " from " << tmpl.path << "\n";
-      first = false;
-      continue;
-    }
-    if (cmd == ".control") in_control = true;
-    if (in_control) {
-      if (cmd == ".endc") in_control = false;
-      continue;
-    }
-    if (kDropped.count(cmd)) continue;
-    if (cmd == ".param") {
+  for (const DeckLine& card : tmpl.body) {
+    if (card.origin.file == tmpl.path && DotCommand(card.text) == ".param") {
       // All parameters, resolved to numbers, where the first .param stood.
       if (!params_written) {
         for (const auto& p : tmpl.params) {
-          out << ".param " << p.name << "=" << FormatNumber(resolved.at(p.name)) << "\n";
+          deck.lines.push_back(
+              {".param " + p.name + "=" + FormatNumber(resolved.at(p.name)), p.where});
         }
         params_written = true;
       }
       continue;
     }
-    out << text << "\n";
+    deck.lines.push_back(card);
   }
-  out << "* zvsmap analysis settings\n";
-  out << ".options method=gear reltol=" << FormatNumber(tran.reltol) << "\n";
+  deck.AddGenerated("* zvsmap analysis settings");
+  deck.AddGenerated(".options method=gear reltol=" + FormatNumber(tran.reltol));
   if (!vectors.empty()) {
-    out << ".save";
-    for (const auto& v : vectors) out << " " << v;
-    out << "\n";
+    std::string save = ".save";
+    for (const auto& v : vectors) save += " " + v;
+    deck.AddGenerated(save);
   }
   double tstep = tran.max_step_s > 0 ? tran.max_step_s : tran.tstop_s / 1000;
-  out << ".tran " << FormatNumber(tstep) << " " << FormatNumber(tran.tstop_s) << " "
-      << FormatNumber(tran.tstart_s) << " " << FormatNumber(tstep) << " uic\n";
-  out << ".end\n";
-  return out.str();
+  deck.AddGenerated(".tran " + FormatNumber(tstep) + " " + FormatNumber(tran.tstop_s) + " " +
+                    FormatNumber(tran.tstart_s) + " " + FormatNumber(tstep) + " uic");
+  deck.AddGenerated(".end");
+  return deck;
+}
+
+std::string RenderNetlist(const Template& tmpl, const Variables& resolved, const TranSettings& tran,
+                          const std::vector<std::string>& vectors) {
+  return RenderDeck(tmpl, resolved, tran, vectors).Text();
 }
 
 std::vector<std::string> VectorsToSave(const Template& tmpl) {

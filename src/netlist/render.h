@@ -7,6 +7,7 @@
 
 #include "core/diagnostic.h"
 #include "core/expression.h"
+#include "netlist/deck.h"
 #include "netlist/template.h"
 #include "sweep/point.h"
 
@@ -16,8 +17,8 @@ namespace zvsmap {
 /// values replace the defaults, then each declaration is evaluated in file
 /// order (so `D={Vout/Vin}` follows a swept Vout). Keys are lower-case.
 /// `extra` (e.g. settled initial conditions) overrides after the point.
-bool ResolveParams(const Template& tmpl, const std::vector<ParamValue>& values,
-                   Variables* resolved, Diagnostic* error);
+bool ResolveParams(const Template& tmpl, const std::vector<ParamValue>& values, Variables* resolved,
+                   Diagnostic* error);
 
 /// The switching period of a resolved point (the `*@ period` expression).
 bool ResolvePeriod(const Template& tmpl, const Variables& resolved, double* period_s,
@@ -26,17 +27,23 @@ bool ResolvePeriod(const Template& tmpl, const Variables& resolved, double* peri
 /// Transient settings added to the rendered netlist.
 struct TranSettings {
   double tstop_s = 0;
-  double tstart_s = 0;   ///< data before this is not stored
+  double tstart_s = 0;  ///< data before this is not stored
   double max_step_s = 0;
   double reltol = 1e-4;
 };
 
-/// The rendered netlist: the template's lines with .param values replaced by
-/// the resolved numbers and the template's own .tran/.save/.control/.end/
-/// .print/.plot/.meas removed, followed by zvsmap's `.options` (gear),
-/// `.save` of `vectors`, `.tran ... uic` and `.end`. Runs in plain ngspice.
-std::string RenderNetlist(const Template& tmpl, const Variables& resolved,
-                          const TranSettings& tran, const std::vector<std::string>& vectors);
+/// The assembled deck of a point: a title of zvsmap's own, the template's
+/// cards with every include inlined (Template::body; analysis and output
+/// cards are left out there), the template's .param values replaced by the
+/// resolved numbers, followed by zvsmap's `.options` (gear), `.save` of
+/// `vectors`, `.tran ... uic` and `.end`. Names no file and runs in plain
+/// ngspice; each line carries the file:line it came from.
+Deck RenderDeck(const Template& tmpl, const Variables& resolved, const TranSettings& tran,
+                const std::vector<std::string>& vectors);
+
+/// RenderDeck(...).Text().
+std::string RenderNetlist(const Template& tmpl, const Variables& resolved, const TranSettings& tran,
+                          const std::vector<std::string>& vectors);
 
 /// The vectors the analysis needs for every cell and state of the template.
 std::vector<std::string> VectorsToSave(const Template& tmpl);

@@ -1,11 +1,13 @@
 #include "netlist/template.h"
 
 #include <cctype>
+#include <filesystem>
 #include <fstream>
 #include <map>
 #include <sstream>
 
 #include "core/text.h"
+#include "netlist/include_closure.h"
 
 namespace zvsmap {
 
@@ -158,6 +160,9 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
                        Diagnostic* error) {
   *out = Template{};
   out->path = path;
+  // Every card of the template and of every file it includes is checked
+  // before anything else reads it.
+  if (!ExpandNetlistText(text, path, /*has_title=*/true, &out->body, error)) return false;
 
   // Physical lines -> logical lines: SPICE "+" continuations and our "*@+".
   struct Annotation {
@@ -302,14 +307,13 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
 }
 
 bool LoadTemplate(const std::string& path, Template* out, Diagnostic* error) {
-  std::ifstream file(path, std::ios::binary);
-  if (!file) {
-    *error = At(path, 0, "cannot open template file");
+  std::string text, message;
+  if (!ReadDeckFile(path, &text, &message)) {
+    std::error_code ec;
+    *error = At(path, 0, std::filesystem::exists(path, ec) ? message : "cannot open template file");
     return false;
   }
-  std::ostringstream text;
-  text << file.rdbuf();
-  return ParseTemplateText(text.str(), path, out, error);
+  return ParseTemplateText(text, path, out, error);
 }
 
 }  // namespace zvsmap

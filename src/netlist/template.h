@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "core/diagnostic.h"
+#include "netlist/deck.h"
 
 namespace zvsmap {
 
@@ -20,18 +21,18 @@ struct ParamDecl {
 /// Node names are lower-case; "0" is ground.
 struct CellSpec {
   std::string name;
-  std::string node;        ///< switch node
-  std::string rail_high;   ///< rail the node reaches when the high switch conducts
-  std::string rail_low;    ///< rail the node reaches when the low switch conducts
-  std::string current;     ///< zero-volt source; i(current) > 0 flows OUT of the node
-  std::string high, low;   ///< switch instance names (subcircuits)
-  std::string high_cmd, low_cmd;          ///< logic command nodes, 0 V off / 1 V on
-  std::string high_gate, high_source;     ///< optional: gate and source nodes
+  std::string node;                    ///< switch node
+  std::string rail_high;               ///< rail the node reaches when the high switch conducts
+  std::string rail_low;                ///< rail the node reaches when the low switch conducts
+  std::string current;                 ///< zero-volt source; i(current) > 0 flows OUT of the node
+  std::string high, low;               ///< switch instance names (subcircuits)
+  std::string high_cmd, low_cmd;       ///< logic command nodes, 0 V off / 1 V on
+  std::string high_gate, high_source;  ///< optional: gate and source nodes
   std::string low_gate, low_source;
-  std::string high_dead, low_dead;        ///< optional: params of the dead time before each turn-on
-  std::string high_vth, low_vth;          ///< optional: params of each switch's gate threshold
-  std::string inductance;                 ///< optional: param of the commutating inductance
-  std::string coss;                       ///< optional: param of a linear Coss per switch
+  std::string high_dead, low_dead;  ///< optional: params of the dead time before each turn-on
+  std::string high_vth, low_vth;    ///< optional: params of each switch's gate threshold
+  std::string inductance;           ///< optional: param of the commutating inductance
+  std::string coss;                 ///< optional: param of a linear Coss per switch
   SourceLocation where;
 };
 
@@ -48,6 +49,10 @@ struct StateSpec {
 struct Template {
   std::string path;
   std::vector<std::pair<int, std::string>> lines;
+  /// The template's cards with every included file inlined and checked
+  /// against the deck rules (netlist/include_closure.h), each tagged with its
+  /// file:line; without the title, blank lines and analysis/output cards.
+  std::vector<DeckLine> body;
   std::vector<ParamDecl> params;
   std::string period_expression;
   SourceLocation period_where;
@@ -65,7 +70,9 @@ struct Template {
   const ParamDecl* FindParam(const std::string& name) const;
 };
 
-/// Parses template text; `path` names it in messages. Fails on a malformed
+/// Parses template text; `path` names it in messages and anchors its relative
+/// includes, which are read, checked and inlined into `body`. Fails on a
+/// refused card anywhere in the include closure, an unreadable include, a malformed
 /// annotation (unknown key, missing required key, unknown cell reference to an
 /// undeclared parameter) or a missing `*@ period` / `*@ cell`.
 bool ParseTemplateText(const std::string& text, const std::string& path, Template* out,

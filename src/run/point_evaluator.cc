@@ -8,15 +8,19 @@
 #include "analysis/edge_finder.h"
 #include "core/spice_number.h"
 #include "handcalc/hand_calculation.h"
+#include "sim/engine_messages.h"
 #include "sim/steady_state.h"
 
 namespace zvsmap {
 
 const char* PointStatusName(PointStatus s) {
   switch (s) {
-    case PointStatus::kOk: return "ok";
-    case PointStatus::kFailed: return "failed";
-    case PointStatus::kUnsettled: return "unsettled";
+    case PointStatus::kOk:
+      return "ok";
+    case PointStatus::kFailed:
+      return "failed";
+    case PointStatus::kUnsettled:
+      return "unsettled";
   }
   return "failed";
 }
@@ -28,15 +32,14 @@ PointEvaluator::PointEvaluator(const SweepSpec& spec, const Template& tmpl)
 }
 
 bool PointEvaluator::RenderFor(const Point& point, const Variables& resolved,
-                               const TranSettings& tran, std::string* netlist,
-                               std::string* why) const {
-  *netlist = RenderNetlist(tmpl_, resolved, tran, VectorsToSave(tmpl_));
+                               const TranSettings& tran, Deck* deck, std::string* why) const {
+  *deck = RenderDeck(tmpl_, resolved, tran, VectorsToSave(tmpl_));
   if (point.devices.empty()) return true;
   if (!devices_error_.empty()) {
     *why = devices_error_;
     return false;
   }
-  return ApplyDevices(tmpl_, devices_, point.devices, netlist, why);
+  return ApplyDevicesToDeck(tmpl_, devices_, point.devices, deck, why);
 }
 
 TranSettings PointEvaluator::TranFor(const Variables& resolved, double period_s) const {
@@ -77,6 +80,20 @@ TranSettings TranForPeriods(TranSettings tran, double period_s, int periods) {
   return tran;
 }
 
+// The engine's log with every line's netlist references mapped (see MapEngineLines).
+std::string MapEngineLog(const std::string& log, const Deck& deck) {
+  std::string out;
+  size_t start = 0;
+  while (start < log.size()) {
+    size_t end = log.find('\n', start);
+    if (end == std::string::npos) end = log.size();
+    out += MapEngineLines(log.substr(start, end - start), deck);
+    if (end < log.size()) out += "\n";
+    start = end + 1;
+  }
+  return out;
+}
+
 std::string LowerAscii(std::string s) {
   for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
   return s;
@@ -84,16 +101,23 @@ std::string LowerAscii(std::string s) {
 
 }  // namespace
 
-bool PointEvaluator::Render(const Point& point, std::string* netlist, Diagnostic* error) const {
+bool PointEvaluator::RenderPointDeck(const Point& point, Deck* deck, Diagnostic* error) const {
   Variables resolved;
   double period = 0;
   if (!ResolveParams(tmpl_, point.values, &resolved, error)) return false;
   if (!ResolvePeriod(tmpl_, resolved, &period, error)) return false;
   std::string why;
-  if (!RenderFor(point, resolved, TranFor(resolved, period), netlist, &why)) {
+  if (!RenderFor(point, resolved, TranFor(resolved, period), deck, &why)) {
     *error = Diagnostic{{spec_.path, 0, 0}, why, {}};
     return false;
   }
+  return true;
+}
+
+bool PointEvaluator::Render(const Point& point, std::string* netlist, Diagnostic* error) const {
+  Deck deck;
+  if (!RenderPointDeck(point, &deck, error)) return false;
+  *netlist = deck.Text();
   return true;
 }
 
@@ -125,14 +149,16 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
   for (const auto& s : tmpl_.states) {
     states.push_back({s.vector, resolved.at(s.init_param), SlowStateFloor(s.vector)});
   }
+  // The last deck handed to the engine: its messages about netlist lines are
+  // mapped back to the user's file:line through it.
+  Deck last_deck;
   auto render = [&](const std::vector<double>& x, int periods, std::string* netlist,
                     std::string* why) {
     std::vector<ParamValue> values = point.values;
     for (size_t i = 0; i < x.size(); ++i) {
       const std::string& name = tmpl_.states[i].init_param;
-      auto it = std::find_if(values.begin(), values.end(), [&](const ParamValue& v) {
-        return LowerAscii(v.name) == name;
-      });
+      auto it = std::find_if(values.begin(), values.end(),
+                             [&](const ParamValue& v) { return LowerAscii(v.name) == name; });
       if (it != values.end()) {
         it->value = x[i];
       } else {
@@ -145,8 +171,12 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
       *why = d.Format();
       return false;
     }
-    return RenderFor(point, r, TranForPeriods(TranFor(r, period), period, periods), netlist,
-                     why);
+    if (!RenderFor(point, r, TranForPeriods(TranFor(r, period), period, periods), &last_deck,
+                   why)) {
+      return false;
+    }
+    *netlist = last_deck.Text();
+    return true;
   };
   SteadyStateOptions options;
   options.method = sim.settle_method == "periods" ? SteadyStateOptions::Method::kPeriods
@@ -155,8 +185,8 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
   options.max_newton = sim.max_newton;
   options.max_periods = sim.max_periods;
   options.chunk_periods = std::max(1, std::min(sim.settle_periods, sim.max_periods));
-  SteadyStateResult ss = FindPeriodicSteadyState(simulator, render, vectors, states, period,
-                                                 options);
+  SteadyStateResult ss =
+      FindPeriodicSteadyState(simulator, render, vectors, states, period, options);
   result.settle.method = ss.method;
   result.settle.iterations = ss.iterations;
   result.settle.periods = ss.periods;
@@ -165,16 +195,16 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
     result.settle.initial_state.emplace_back(tmpl_.states[i].init_param, ss.state[i]);
   }
   if (!ss.ok) {
-    result.reason = "while settling: " + ss.error;
-    result.log = ss.log;
+    result.reason = "while settling: " + MapEngineLines(ss.error, last_deck);
+    result.log = MapEngineLog(ss.log, last_deck);
     return finish();
   }
   if (!ss.settled) {
     // Not measured: numbers from an unsettled period would look trustworthy.
     result.status = PointStatus::kUnsettled;
-    result.reason = "not settled after " + std::to_string(ss.periods) +
-                    " periods: residual " + FormatNumber(ss.residual) + " > tolerance " +
-                    FormatNumber(options.tolerance) + " (relative to the ripple)";
+    result.reason = "not settled after " + std::to_string(ss.periods) + " periods: residual " +
+                    FormatNumber(ss.residual) + " > tolerance " + FormatNumber(options.tolerance) +
+                    " (relative to the ripple)";
     return finish();
   }
 
@@ -186,8 +216,8 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
       RunFromState(simulator, render, vectors, states, period, measured, -1, &x, &why);
   result.settle.periods += measured;
   if (!out.ok) {
-    result.reason = why.empty() ? out.error : why;
-    result.log = out.log;
+    result.reason = why.empty() ? MapEngineLines(out.error, last_deck) : why;
+    result.log = MapEngineLog(out.log, last_deck);
     return finish();
   }
 

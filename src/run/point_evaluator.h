@@ -26,6 +26,9 @@ class PointEvaluator {
   /// to run in plain ngspice). Fails when a parameter cannot be evaluated.
   bool Render(const Point& point, std::string* netlist, Diagnostic* error) const;
 
+  /// The point's assembled deck (Render's text, each line with its origin).
+  bool RenderPointDeck(const Point& point, Deck* deck, Diagnostic* error) const;
+
   /// Runs the whole per-point pipeline. Never throws for bad circuits: the
   /// result's status and reason say what went wrong. When `settled` is not
   /// null it receives the measured periods' waveforms (for plots and checks).
@@ -36,9 +39,9 @@ class PointEvaluator {
   TranSettings TranFor(const Variables& resolved, double period_s) const;
 
  private:
-  /// RenderNetlist plus the point's switch models (ApplyDevices).
+  /// RenderDeck plus the point's switch models (ApplyDevicesToDeck).
   bool RenderFor(const Point& point, const Variables& resolved, const TranSettings& tran,
-                 std::string* netlist, std::string* why) const;
+                 Deck* deck, std::string* why) const;
 
   const SweepSpec& spec_;
   const Template& tmpl_;

@@ -14,12 +14,12 @@ std::vector<std::string> PointContentHashes(const PreparedSweep& sweep,
                                             const PointEvaluator& evaluator) {
   std::vector<std::string> hashes(sweep.points.size());
   for (size_t i = 0; i < sweep.points.size(); ++i) {
-    std::string netlist;
+    Deck deck;
     Diagnostic render_error;
-    if (!evaluator.Render(sweep.points[i], &netlist, &render_error)) {
-      netlist = "render error: " + render_error.Format();
-    }
-    hashes[i] = PointContentHash(netlist, sweep.spec, sweep.tmpl);
+    std::string canonical = evaluator.RenderPointDeck(sweep.points[i], &deck, &render_error)
+                                ? deck.Canonical()
+                                : "render error: " + render_error.message;
+    hashes[i] = PointContentHash(canonical, sweep.spec, sweep.tmpl);
   }
   return hashes;
 }
@@ -34,10 +34,50 @@ bool CollectStoredResults(RunStore& store, const std::vector<std::string>& hashe
     (*results)[i].index = i;
     (*results)[i].reason = kNotRun;
   }
+  // Prefer the row at the point's own index, then any row with its hash.
+  std::map<std::string, size_t> by_hash;
+  for (const auto& key : keys) by_hash.emplace(key.content_hash, key.index);
   for (const auto& key : keys) {
-    if (key.index >= hashes.size() || key.content_hash != hashes[key.index]) continue;
-    auto it = loaded.find(key.index);
-    if (it != loaded.end()) (*results)[key.index] = std::move(it->second);
+    if (key.index < hashes.size() && key.content_hash == hashes[key.index])
+      by_hash[key.content_hash] = key.index;
+  }
+  for (size_t i = 0; i < hashes.size(); ++i) {
+    auto found = by_hash.find(hashes[i]);
+    if (found == by_hash.end()) continue;
+    auto it = loaded.find(found->second);
+    if (it == loaded.end()) continue;
+    (*results)[i] = it->second;
+    (*results)[i].index = i;
+  }
+  return true;
+}
+
+bool RekeyStoredResults(RunStore& store, const std::vector<Point>& points,
+                        const std::vector<std::string>& hashes, std::string* error) {
+  std::vector<StoredPointKey> keys;
+  if (!store.ListPoints(&keys, error)) return false;
+  std::map<size_t, std::string> hash_at;
+  std::map<std::string, size_t> index_of;
+  for (const auto& key : keys) {
+    hash_at[key.index] = key.content_hash;
+    index_of.emplace(key.content_hash, key.index);
+  }
+  std::vector<std::pair<size_t, size_t>> moves;  // (to, from)
+  for (size_t i = 0; i < hashes.size() && i < points.size(); ++i) {
+    auto at = hash_at.find(i);
+    if (at != hash_at.end() && at->second == hashes[i]) continue;
+    auto from = index_of.find(hashes[i]);
+    if (from != index_of.end()) moves.emplace_back(i, from->second);
+  }
+  if (moves.empty()) return true;
+  std::map<size_t, PointResult> loaded;  // read everything before the first write
+  if (!store.LoadResults(&loaded, error)) return false;
+  for (const auto& [to, from] : moves) {
+    auto it = loaded.find(from);
+    if (it == loaded.end()) continue;
+    PointResult moved = it->second;
+    moved.index = to;
+    if (!store.SavePoint(points[to], hashes[to], moved, error)) return false;
   }
   return true;
 }

@@ -12,13 +12,20 @@
 
 namespace zvsmap {
 
-/// The content hash of every point (rendered netlist + settings + version),
+/// The content hash of every point (canonical deck + settings + version),
 /// index for index. A point that cannot be rendered hashes its render error.
 std::vector<std::string> PointContentHashes(const PreparedSweep& sweep,
                                             const PointEvaluator& evaluator);
 
-/// Every point's stored result whose content hash matches `hashes`, index
-/// for index; a point without one is status kFailed with reason "not run".
+/// Moves stored results to the index their content now has: a point whose
+/// stored row (at its index) has another hash takes the stored result of
+/// any index with its hash, so a grid that grew or shrank keeps every
+/// point that still exists. Call before deciding what to run.
+bool RekeyStoredResults(RunStore& store, const std::vector<Point>& points,
+                        const std::vector<std::string>& hashes, std::string* error);
+
+/// Every point's stored result whose content hash matches `hashes` (at any
+/// stored index); a point without one is status kFailed with reason "not run".
 bool CollectStoredResults(RunStore& store, const std::vector<std::string>& hashes,
                           std::vector<PointResult>* results, std::string* error);
 

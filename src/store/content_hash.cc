@@ -43,9 +43,9 @@ std::string SweepIdentity(const std::string& sweep_path, const std::string& temp
   return HexHash(h);
 }
 
-std::string PointContentHash(const std::string& rendered_netlist, const SweepSpec& spec,
+std::string PointContentHash(const std::string& canonical_deck, const SweepSpec& spec,
                              const Template& tmpl) {
-  uint64_t h = Fnv1a64(rendered_netlist);
+  uint64_t h = Fnv1a64(canonical_deck);
   char buf[320];
   const SimulationSettings& s = spec.simulation;
   std::snprintf(buf, sizeof buf,
@@ -57,8 +57,16 @@ std::string PointContentHash(const std::string& rendered_netlist, const SweepSpe
   std::snprintf(buf, sizeof buf, "zvs=%d:%.17g",
                 spec.zvs.kind == ZvsCriterion::Kind::kAbsolute ? 0 : 1, spec.zvs.value);
   h = Fnv1a64(kSeparator + buf, h);
-  for (const auto& line : tmpl.lines) {
-    if (line.second.compare(0, 2, "*@") == 0) h = Fnv1a64(kSeparator + line.second, h);
+  // The annotations (the template's own `*@` comments; the deck drops them).
+  for (const DeckLine& card : tmpl.body) {
+    if (card.origin.file != tmpl.path) continue;
+    std::istringstream words(card.text);
+    std::string word, first, annotation;
+    words >> first;
+    if (first.compare(0, 2, "*@") != 0) continue;
+    annotation = first;
+    while (words >> word) annotation += " " + word;
+    h = Fnv1a64(kSeparator + annotation, h);
   }
   h = Fnv1a64(kSeparator + ZVSMAP_VERSION, h);
   return HexHash(h);

@@ -21,12 +21,15 @@ std::string HexHash(uint64_t hash);
 /// A file that cannot be read contributes its path only.
 std::string SweepIdentity(const std::string& sweep_path, const std::string& template_path);
 
-/// A point's content hash: its rendered netlist, everything else that changes
-/// its measured result (simulation settings, ZVS criterion, the template's
-/// `*@` annotations) and the zvsmap version. Equal hashes mean the stored
-/// result can be reused. When new sweep settings start to affect a point's
-/// result, add them here.
-std::string PointContentHash(const std::string& rendered_netlist, const SweepSpec& spec,
+/// A point's content hash: its canonical deck (`canonical_deck`, from
+/// Deck::Canonical(): the assembled text with every file's contents inlined,
+/// without title, comments and blank lines, so it names no path and no point
+/// index), everything else that changes its measured result (simulation
+/// settings, ZVS criterion, the template's `*@` annotations, blanks
+/// collapsed) and the zvsmap version. Equal hashes mean the stored result can
+/// be reused. When new sweep settings start to affect a point's result, add
+/// them here.
+std::string PointContentHash(const std::string& canonical_deck, const SweepSpec& spec,
                              const Template& tmpl);
 
 }  // namespace zvsmap

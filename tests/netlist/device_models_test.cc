@@ -194,15 +194,17 @@ TEST_F(DeviceModelsTest, RewritesInstancesWithThePinMapAndTies) {
   ASSERT_TRUE(
       ApplyDevices(tmpl_, devices_, {{"leg.high", "mine"}, {"leg.low", "five"}}, &a, &error))
       << error;
-  std::string lib = (dir_ / "models.lib").string();
-  EXPECT_EQ(a, "title\n* zvsmap switch models\n.include \"" + lib +
-                   "\"\n"
-                   "vzt_xls_tj zt_xls_tj 0 dc 25\n"
-                   "* wrapper: i(v.xls.vch) is the drain terminal current of Fet5\n"
-                   ".subckt zvsmap_w_xls d g s t_tj\nvch d d_dut 0\n"
-                   "x1 d_dut g s s t_tj Fet5\n.ends zvsmap_w_xls\n"
-                   "xhs sw in gh fet_sdg rg=2\n"
-                   "xls sw gl 0 zt_xls_tj zvsmap_w_xls\n.end\n");
+  // The model file's cards are inlined (continuations joined): ngspice opens no file.
+  EXPECT_EQ(a,
+            "title\n* zvsmap switch models\n* invented models for the test\n"
+            ".subckt fet_sdg S D G params: rg=1\nvch D x 0\nr1 x S 1\n.ends\n"
+            ".SUBCKT Fet5 D G S KS  TJ\nr1 D S 1\n.ENDS\n"
+            "vzt_xls_tj zt_xls_tj 0 dc 25\n"
+            "* wrapper: i(v.xls.vch) is the drain terminal current of Fet5\n"
+            ".subckt zvsmap_w_xls d g s t_tj\nvch d d_dut 0\n"
+            "x1 d_dut g s s t_tj Fet5\n.ends zvsmap_w_xls\n"
+            "xhs sw in gh fet_sdg rg=2\n"
+            "xls sw gl 0 zt_xls_tj zvsmap_w_xls\n.end\n");
   // A generic model keeps the template's initial voltage, takes its own params,
   // and the template's own definition of a generic name is not duplicated.
   std::string b = netlist;

@@ -14,9 +14,6 @@ const char* kTemplate = R"(buck under test
 *@ state v(out) init=vout
 V1 in 0 {Vin}
 .tran 1n 10u
-.control
-run
-.endc
 .save v(sw)
 .end
 )";
@@ -79,8 +76,7 @@ TEST_F(RenderTest, ReplacesAnalysisCommandsAndResolvesParams) {
   EXPECT_EQ(net.find(".control"), std::string::npos);
   EXPECT_EQ(net.find("\nrun\n"), std::string::npos);
   EXPECT_NE(net.find(".options method=gear reltol=0.0001\n"), std::string::npos);
-  EXPECT_NE(net.find(".save v(sw) v(in) i(vsense) v(ch) v(cl) v(out)\n"), std::string::npos)
-      << net;
+  EXPECT_NE(net.find(".save v(sw) v(in) i(vsense) v(ch) v(cl) v(out)\n"), std::string::npos) << net;
   EXPECT_NE(net.find(".tran 1e-09 1e-05 6e-06 1e-09 uic\n.end\n"), std::string::npos) << net;
 }
 
