@@ -1,6 +1,7 @@
 #include "run/sweep_setup.h"
 
 #include "handcalc/hand_calculation.h"
+#include "netlist/deck_names.h"
 #include "sweep/sweep_expand.h"
 #include "sweep/sweep_parser.h"
 
@@ -24,6 +25,7 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     return false;
   }
   if (!ResolveSweepDevices(out->spec, out->tmpl, &out->devices, errors)) return false;
+  if (!CheckDeckNames(out->tmpl, out->devices, errors)) return false;
   if (!ExpandSweep(out->spec, &out->points, &error)) {
     errors->push_back(error);
     return false;
