@@ -177,6 +177,7 @@ std::string RunStore::GetMeta(const std::string& key) {
 }
 
 bool RunStore::SetMeta(const std::string& key, const std::string& value, std::string* error) {
+  if (GetMeta(key) == value && !value.empty()) return true;  // a rerun writes nothing it need not
   Statement q(db_, "INSERT OR REPLACE INTO meta(key, value) VALUES(?, ?)");
   q.Text(1, key);
   q.Text(2, value);

@@ -42,7 +42,7 @@ class RunStore {
 
   /// A meta value ("" when absent).
   std::string GetMeta(const std::string& key);
-  /// Sets a meta value.
+  /// Sets a meta value (writes nothing when it already has that value).
   bool SetMeta(const std::string& key, const std::string& value, std::string* error);
 
   /// Every stored point's index, content hash and status.
