@@ -362,5 +362,37 @@ TEST(WorkerPoolTest, TheTickKeepsComingWhileAPointHangs) {
   EXPECT_GE(ticks, 3);
 }
 
+TEST(WorkerPoolNgspiceTest, NgspiceRunningIntoTheMemoryBoundIsWordedAsTheBound) {
+  if (!MemoryBoundAvailable()) GTEST_SKIP() << "no memory bound under AddressSanitizer";
+  WorkerPoolOptions options;
+  options.jobs = 1;
+  options.memory_bound_bytes = kBound;
+  // 1 ms in 10 ps steps: ngspice sizes its vectors for 1e8 points (800 MB
+  // each) before it starts, far past the 256 MiB bound.
+  auto long_on_one = [](size_t index, Simulator& sim) {
+    if (index != 1) {
+      PointResult good = Simulate(0, sim);  // the good netlist
+      good.index = index;
+      return good;
+    }
+    SimulationOutput out = sim.Run(
+        "long\nV1 in 0 DC 1\nR1 in out 1k\nC1 out 0 1n IC=0\n.tran 10p 1m 0 10p uic\n.end\n",
+        {"v(out)"}, 1e-3);
+    PointResult r;
+    r.index = index;
+    r.status = out.ok ? PointStatus::kOk : PointStatus::kFailed;
+    r.reason = out.error;
+    return r;
+  };
+  WorkerPool pool(long_on_one, Ngspice(), options);
+  auto results = RunAll(pool, 3);
+  ASSERT_EQ(results.size(), 3u);
+  const std::string prefix =
+      "memory bound: the worker reached its 256 MiB limit (--worker-memory); engine error: ";
+  EXPECT_EQ(results[1].reason.rfind(prefix, 0), 0u) << results[1].reason;
+  EXPECT_NE(results[1].reason.find("can't allocate"), std::string::npos) << results[1].reason;
+  for (size_t i : {0, 2}) EXPECT_EQ(results[i].status, PointStatus::kOk) << results[i].reason;
+}
+
 }  // namespace
 }  // namespace zvsmap
