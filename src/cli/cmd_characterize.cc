@@ -2,12 +2,15 @@
 // energy and reverse-conduction curve in ngspice.
 #include <cstdio>
 #include <filesystem>
-#include <fstream>
 #include <memory>
 #include <optional>
+#include <string>
+#include <utility>
+#include <vector>
 
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
+#include "core/atomic_file.h"
 #include "core/spice_number.h"
 #include "run/switch_characterization.h"
 #include "sim/ngspice_simulator.h"
@@ -130,28 +133,37 @@ void AddCharacterizeCommand(CLI::App& app, int* exit_code) {
     if (!opts->out.empty()) {
       std::error_code ec;
       std::filesystem::create_directories(opts->out, ec);
-      std::ofstream coss(opts->out + "/coss.csv", std::ios::binary);
-      std::ofstream rev(opts->out + "/reverse.csv", std::ios::binary);
-      if (!coss || !rev) {
-        std::fprintf(stderr, "zvsmap: error: cannot write to '%s'\n", opts->out.c_str());
+      if (ec) {
+        std::fprintf(stderr, "zvsmap: error: %s: cannot create output directory: %s\n",
+                     opts->out.c_str(), ec.message().c_str());
         *exit_code = kExitInternal;
         return;
       }
       char buf[200];
-      coss << "v_ds_v,coss_f,qoss_c,eoss_j,co_tr_f,co_er_f\r\n";
+      std::string coss = "v_ds_v,coss_f,qoss_c,eoss_j,co_tr_f,co_er_f\r\n";
       for (const auto& r : result.coss) {
         std::snprintf(buf, sizeof buf, "%.9g,%.9g,%.9g,%.9g,%.9g,%.9g\r\n", r.v_v, r.c_f, r.q_c,
                       r.e_j, r.co_tr_f, r.co_er_f);
-        coss << buf;
+        coss += buf;
       }
-      rev << "i_rev_a,v_rev_v\r\n";
+      std::string rev = "i_rev_a,v_rev_v\r\n";
       for (const auto& r : result.reverse) {
         std::snprintf(buf, sizeof buf, "%.9g,%.9g\r\n", r.i_a, r.v_v);
-        rev << buf;
+        rev += buf;
       }
+      std::vector<std::pair<std::string, const std::string*>> files = {{"coss.csv", &coss},
+                                                                       {"reverse.csv", &rev}};
       if (opts->netlists) {
-        std::ofstream(opts->out + "/coss.cir") << result.netlist_coss;
-        std::ofstream(opts->out + "/reverse.cir") << result.netlist_reverse;
+        files.push_back({"coss.cir", &result.netlist_coss});
+        files.push_back({"reverse.cir", &result.netlist_reverse});
+      }
+      for (const auto& [name, text] : files) {
+        std::string error;
+        if (!WriteFileAtomically(opts->out + "/" + name, *text, &error)) {
+          std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+          *exit_code = kExitInternal;
+          return;
+        }
       }
     }
     *exit_code = kExitOk;

@@ -7,12 +7,14 @@
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
 #include "cli/run_summary.h"
+#include "core/dir_lock.h"
 #include "run/point_evaluator.h"
 #include "run/run_plan.h"
 #include "run/sweep_setup.h"
 #include "store/content_hash.h"
 #include "store/run_store.h"
 #include "store/store_merge.h"
+#include "store/store_owner.h"
 
 namespace zvsmap::cli {
 namespace {
@@ -59,6 +61,11 @@ int Merge(const Options& opts) {
   }
   std::error_code ec;
   std::filesystem::create_directories(opts.out_dir, ec);
+  if (ec) {
+    std::fprintf(stderr, "zvsmap: error: %s: cannot create output directory: %s\n",
+                 opts.out_dir.c_str(), ec.message().c_str());
+    return kExitBadInput;
+  }
   std::string store_path = (std::filesystem::path(opts.out_dir) / "run.sqlite").string();
   for (const auto& s : stores) {
     if (std::filesystem::equivalent(s, store_path, ec)) {
@@ -67,9 +74,18 @@ int Merge(const Options& opts) {
     }
   }
   std::string error;
+  std::unique_ptr<DirLock> lock = DirLock::Acquire(opts.out_dir, "merge", &error);
+  if (!lock) {
+    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+    return kExitBadInput;
+  }
   std::unique_ptr<RunStore> target = RunStore::Open(store_path, &error);
   if (!target) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+    return kExitBadInput;
+  }
+  if (!StoreBelongsTo(*target, store_path, sweep.spec.path, &error)) {
+    std::fprintf(stderr, "zvsmap: error: %s; remove it or choose another --out\n", error.c_str());
     return kExitBadInput;
   }
 
@@ -81,7 +97,8 @@ int Merge(const Options& opts) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitBadInput;
   }
-  if (!target->SetMeta("sweep_identity", identity, &error) ||
+  if (!ClaimStore(*target, sweep.spec.path, &error) ||
+      !target->SetMeta("sweep_identity", identity, &error) ||
       !target->SetMeta("sweep_path", sweep.spec.path, &error) ||
       !target->SetMeta("zvsmap_version", ZVSMAP_VERSION, &error)) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());

@@ -16,6 +16,8 @@
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
 #include "cli/run_summary.h"
+#include "core/dir_lock.h"
+#include "run/memory_bound.h"
 #include "run/point_evaluator.h"
 #include "run/progress.h"
 #include "run/run_plan.h"
@@ -25,6 +27,7 @@
 #include "sim/ngspice_simulator.h"
 #include "store/content_hash.h"
 #include "store/run_store.h"
+#include "store/store_owner.h"
 #include "sweep/sharding.h"
 
 namespace zvsmap::cli {
@@ -56,6 +59,7 @@ struct Options {
   std::string shard;
   size_t shards = 0;
   std::string waveforms;  ///< "worst" and/or point indices, comma-separated; "" = none
+  std::string worker_memory;  ///< per-worker memory bound, e.g. "2G"; "" = the default
 };
 
 int Run(const Options& opts) {
@@ -70,6 +74,20 @@ int Run(const Options& opts) {
     }
     wave_request.timeout_s = opts.timeout_s;
     wave_request.quiet = opts.quiet;
+  }
+  int jobs = opts.jobs > 0 ? opts.jobs : static_cast<int>(sysconf(_SC_NPROCESSORS_ONLN));
+  uint64_t memory_bound = DefaultWorkerMemory(jobs);
+  if (!opts.worker_memory.empty()) {
+    std::string why;
+    if (!ParseMemorySize(opts.worker_memory, &memory_bound, &why)) {
+      std::fprintf(stderr, "zvsmap: error: --worker-memory: %s\n", why.c_str());
+      return kExitBadInput;
+    }
+    if (memory_bound > 0 && !MemoryBoundAvailable() && !opts.quiet) {
+      std::fprintf(stderr,
+                   "zvsmap: warning: --worker-memory has no effect in this build "
+                   "(AddressSanitizer needs an unbounded address space)\n");
+    }
   }
   PreparedSweep sweep;
   std::vector<Diagnostic> errors;
@@ -100,10 +118,37 @@ int Run(const Options& opts) {
   }
   std::string store_path = (std::filesystem::path(opts.out_dir) / "run.sqlite").string();
   std::string error;
+  // One process at a time per directory; held until this returns.
+  std::unique_ptr<DirLock> lock = DirLock::Acquire(opts.out_dir, "run", &error);
+  if (!lock) {
+    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+    return kExitBadInput;
+  }
   std::unique_ptr<RunStore> store = RunStore::Open(store_path, &error);
   if (!store) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitBadInput;
+  }
+  // Another sweep's store is replaced only when asked to.
+  std::string owner_message;
+  if (!StoreBelongsTo(*store, store_path, sweep.spec.path, &owner_message)) {
+    if (!opts.rerun) {
+      std::fprintf(stderr,
+                   "zvsmap: error: %s; run with --rerun to replace it, or choose another --out\n",
+                   owner_message.c_str());
+      return kExitBadInput;
+    }
+    if (!store->DeleteAllPoints(&error)) {
+      std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+      return kExitInternal;
+    }
+    if (!opts.quiet) {
+      std::fprintf(stderr, "zvsmap: %s: replaced (--rerun)\n", owner_message.c_str());
+    }
+  }
+  if (!ClaimStore(*store, sweep.spec.path, &error)) {
+    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+    return kExitInternal;
   }
 
   // Which points this process runs: all, or one shard's.
@@ -193,14 +238,16 @@ int Run(const Options& opts) {
     pool_options.jobs = opts.jobs;
     pool_options.timeout_s = opts.timeout_s > 0 ? opts.timeout_s : sweep.spec.simulation.timeout_s;
     pool_options.recycle_after = opts.recycle;
+    pool_options.memory_bound_bytes = memory_bound;
     // Test-only fault switch (see WorkerPoolOptions::fault_spec).
     if (const char* fault = std::getenv("ZVSMAP_TEST_FAULT")) pool_options.fault_spec = fault;
+    ProgressReporter progress(stderr, mode, mine.size(), kept, kept_failed);
+    pool_options.on_tick = [&progress] { progress.Tick(); };
     WorkerPool pool(
         [&](size_t index, Simulator& simulator) {
           return evaluator.Evaluate(sweep.points[index], simulator);
         },
         [] { return std::make_unique<NgspiceSimulator>(); }, pool_options);
-    ProgressReporter progress(stderr, mode, mine.size(), kept, kept_failed);
     g_stop = 0;
     InstallStopHandlers();
     PoolOutcome outcome = pool.Run(
@@ -266,9 +313,14 @@ void AddRunCommand(CLI::App& app, int* exit_code) {
   cmd->add_option("--recycle", opts->recycle,
                   "Replace each worker after this many points (0: never)")
       ->capture_default_str();
-  cmd->add_flag("--rerun", opts->rerun, "Run every point again, ignoring stored results");
+  cmd->add_flag("--rerun", opts->rerun,
+                "Run every point again, ignoring stored results (and replace a store that "
+                "belongs to another sweep)");
   cmd->add_flag("--no-retry-failed", opts->no_retry_failed,
                 "Keep stored failed and unsettled points instead of running them again");
+  cmd->add_option("--worker-memory", opts->worker_memory,
+                  "Memory bound of each worker process, e.g. 2G or 512M (powers of 1024; 0: none); "
+                  "a point past it fails with the reason (default: min(4G, RAM / (jobs + 1)))");
   cmd->add_option("--shard", opts->shard,
                   "Run only shard K of N (K/N, 0-based); default: from a Slurm job array "
                   "(SLURM_ARRAY_TASK_*) or JOB_COMPLETION_INDEX with --shards");

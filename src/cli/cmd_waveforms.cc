@@ -17,6 +17,7 @@
 
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
+#include "core/dir_lock.h"
 #include "run/point_evaluator.h"
 #include "run/run_plan.h"
 #include "run/waveform_export.h"
@@ -155,6 +156,13 @@ int Waveforms(const Options& opts) {
   if (ec) {
     std::fprintf(stderr, "zvsmap: error: %s: cannot create output directory: %s\n",
                  opts.out_dir.c_str(), ec.message().c_str());
+    return kExitBadInput;
+  }
+
+  std::string lock_error;
+  std::unique_ptr<DirLock> lock = DirLock::Acquire(opts.out_dir, "waveforms", &lock_error);
+  if (!lock) {
+    std::fprintf(stderr, "zvsmap: error: %s\n", lock_error.c_str());
     return kExitBadInput;
   }
 

@@ -3,6 +3,7 @@
 #include <CLI/App.hpp>
 #include <CLI/Config.hpp>
 #include <CLI/Formatter.hpp>
+#include <csignal>
 #include <cstdio>
 
 #include "cli/commands.h"
@@ -10,6 +11,10 @@
 #include "core/diagnostic.h"
 
 int main(int argc, char** argv) {
+  // A closed stdout or stderr (`zvsmap run ... 2>&1 | head -1`) must not kill
+  // the run before it writes its reports: writes to it then fail with EPIPE,
+  // which stdio keeps as the stream's error, and the run goes on.
+  std::signal(SIGPIPE, SIG_IGN);
   CLI::App app{"zvsmap " ZVSMAP_VERSION
                ": sweep a SPICE converter template in embedded ngspice and map where each "
                "commutation is zero-voltage switched"};

@@ -3,9 +3,9 @@
 #include <algorithm>
 #include <cstdlib>
 #include <filesystem>
-#include <fstream>
 #include <sstream>
 
+#include "core/atomic_file.h"
 #include "report/csv_writer.h"
 #include "report/html_index.h"
 #include "report/junit_xml.h"
@@ -20,13 +20,7 @@ namespace {
 bool WriteText(const std::string& dir, const std::string& name, const std::string& text,
                ReportOutcome* outcome, std::string* error) {
   std::string path = (std::filesystem::path(dir) / name).string();
-  std::ofstream out(path, std::ios::binary);
-  out << text;
-  out.close();
-  if (!out) {
-    *error = path + ": cannot write";
-    return false;
-  }
+  if (!WriteFileAtomically(path, text, error)) return false;
   outcome->files.push_back(path);
   return true;
 }

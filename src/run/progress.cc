@@ -71,6 +71,10 @@ void ProgressReporter::PointDone(const PointResult& r, const std::string& descri
   Draw(false);
 }
 
+void ProgressReporter::Tick() {
+  if (mode_ != Mode::kQuiet) Draw(false);
+}
+
 void ProgressReporter::Finish() {
   if (mode_ == Mode::kTerminal && line_shown_) {
     std::fputs("\r\033[K", out_);

@@ -37,6 +37,9 @@ class ProgressReporter {
   /// Records a finished point. A failed or unsettled point is always printed
   /// as "zvsmap: point N (description) failed: reason" (also when quiet).
   void PointDone(const PointResult& result, const std::string& description);
+  /// Redraws the line when its interval has passed (always on a terminal),
+  /// also while no point finishes; call it often (the pool's on_tick).
+  void Tick();
   /// Ends the progress line (a terminal's line is cleared).
   void Finish();
   /// The counts so far.

@@ -4,12 +4,12 @@
 #include <cctype>
 #include <cmath>
 #include <filesystem>
-#include <fstream>
 #include <map>
 #include <sstream>
 #include <utility>
 
 #include "analysis/edge_finder.h"
+#include "core/atomic_file.h"
 #include "core/spice_number.h"
 #include "core/text.h"
 #include "netlist/render.h"
@@ -25,13 +25,6 @@ std::string Safe(const std::string& s) {
   std::string out;
   for (char c : s) out += std::isalnum(static_cast<unsigned char>(c)) ? c : '_';
   return out;
-}
-
-bool WriteFile(const std::string& path, const std::string& text) {
-  std::ofstream out(path, std::ios::binary);
-  out << text;
-  out.close();
-  return static_cast<bool>(out);
 }
 
 const EdgeMeasurement* FindMeasurement(const PointResult& r, const std::string& cell,
@@ -147,8 +140,7 @@ std::vector<WaveformExport> ExportWaveforms(const PreparedSweep& sweep,
     WriteRawFile(raw, settled,
                  {"zvsmap point " + std::to_string(index) + ": " + point.Describe(), RawFileDate(),
                   "Transient Analysis"});
-    if (!WriteFile(raw_path, raw.str())) {
-      item.reason = raw_path + ": cannot write";
+    if (!WriteFileAtomically(raw_path, raw.str(), &item.reason)) {
       out.push_back(item);
       continue;
     }
@@ -178,8 +170,7 @@ std::vector<WaveformExport> ExportWaveforms(const PreparedSweep& sweep,
         std::string name = stem + "_" + Safe(cell.name) + "_" + Safe(timing.edge) + ".svg";
         Plot plot = EdgeWaveformPlot(settled, cell, timing, title, name);
         std::string path = (std::filesystem::path(dir) / name).string();
-        if (!WriteFile(path, plot.svg)) {
-          item.reason = path + ": cannot write";
+        if (!WriteFileAtomically(path, plot.svg, &item.reason)) {
           ok = false;
           break;
         }

@@ -3,6 +3,7 @@
 #include <fcntl.h>
 #include <poll.h>
 #include <sys/prctl.h>
+#include <sys/resource.h>
 #include <sys/socket.h>
 #include <sys/stat.h>
 #include <sys/wait.h>
@@ -18,7 +19,12 @@
 #include <deque>
 #include <filesystem>
 #include <map>
+#include <memory>
+#include <new>
+#include <stdexcept>
+#include <vector>
 
+#include "run/memory_bound.h"
 #include "run/result_codec.h"
 
 namespace zvsmap {
@@ -30,7 +36,7 @@ using Clock = std::chrono::steady_clock;
 constexpr uint8_t kFlagExiting = 1;  // the worker quits after this message
 constexpr size_t kHeader = 5;
 
-enum class Fault { kNone, kHang, kSegv, kExitCallback };
+enum class Fault { kNone, kHang, kSegv, kExitCallback, kHog };
 
 std::map<size_t, Fault> ParseFaults(const std::string& spec) {
   std::map<size_t, Fault> faults;
@@ -46,6 +52,7 @@ std::map<size_t, Fault> ParseFaults(const std::string& spec) {
       if (kind == "hang") faults[index] = Fault::kHang;
       if (kind == "segv") faults[index] = Fault::kSegv;
       if (kind == "exitcb") faults[index] = Fault::kExitCallback;
+      if (kind == "hog") faults[index] = Fault::kHog;
     }
     pos = end + 1;
   }
@@ -96,6 +103,19 @@ std::string Seconds(double s) {
   char buf[32];
   std::snprintf(buf, sizeof buf, "%.3g", s);
   return buf;
+}
+
+// The hog fault: grows by touched 16 MiB blocks until an allocation fails
+// (std::bad_alloc, as the bound makes it) or the cap is reached.
+std::string HogMemory(uint64_t bound) {
+  const uint64_t cap = std::min<uint64_t>(bound > 0 ? 2 * bound : 0, 8ull << 30);
+  std::vector<std::unique_ptr<char[]>> blocks;
+  const size_t block = 16u << 20;
+  for (uint64_t total = 0; total < cap; total += block) {
+    blocks.emplace_back(new char[block]);
+    std::memset(blocks.back().get(), 1, block);
+  }
+  return "test fault: the memory bound did not stop the hog";
 }
 
 std::string DeathReason(int status) {
@@ -193,7 +213,7 @@ void WorkerPool::WorkerMain(int fd) {
   // group, so workers ignore SIGINT; SIGTERM kills them; they die with the parent.
   signal(SIGINT, SIG_IGN);
   signal(SIGTERM, SIG_DFL);
-  signal(SIGPIPE, SIG_DFL);
+  signal(SIGPIPE, SIG_IGN);  // a closed stdout/stderr fails a write, never kills the point
   prctl(PR_SET_PDEATHSIG, SIGKILL);
   if (getppid() == 1) _exit(0);
   // A private working directory and HOME: ngspice reads ./.spiceinit and ~/.spiceinit.
@@ -201,6 +221,7 @@ void WorkerPool::WorkerMain(int fd) {
       (temp_dir_.empty() ? std::string("/tmp") : temp_dir_) + "/w" + std::to_string(getpid());
   if (mkdir(dir.c_str(), 0700) != 0 || chdir(dir.c_str()) != 0) _exit(70);
   setenv("HOME", dir.c_str(), 1);
+  ApplyMemoryBound(options_.memory_bound_bytes);
 
   std::map<size_t, Fault> faults = ParseFaults(options_.fault_spec);
   std::unique_ptr<Simulator> simulator;
@@ -228,12 +249,21 @@ void WorkerPool::WorkerMain(int fd) {
       result.reason = "engine error: ngspice stopped (exit callback; test fault)";
     } else {
       try {
+        if (kind == Fault::kHog) throw std::runtime_error(HogMemory(options_.memory_bound_bytes));
         result = job_(static_cast<size_t>(index), watch);
+      } catch (const std::bad_alloc&) {
+        result = PointResult();
+        result.index = static_cast<size_t>(index);
+        result.reason = MemoryBoundReason(options_.memory_bound_bytes, "");
       } catch (const std::exception& e) {
         result = PointResult();
         result.index = static_cast<size_t>(index);
         result.reason = std::string("internal error: ") + e.what();
       }
+    }
+    if (options_.memory_bound_bytes > 0 && result.status != PointStatus::kOk &&
+        result.reason.rfind("memory bound", 0) != 0 && LooksLikeAllocationFailure(result.reason)) {
+      result.reason = MemoryBoundReason(options_.memory_bound_bytes, result.reason);
     }
     bool exiting = watch.poisoned() || kind == Fault::kExitCallback;
     std::string payload = EncodeResult(result);
@@ -336,6 +366,7 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
       for (auto& w : workers_) Retire(w.get());
       return outcome;
     }
+    if (options_.on_tick) options_.on_tick();
     if (stop && *stop) continue;
 
     for (size_t k = 0; n > 0 && k < fds.size(); ++k) {
@@ -378,12 +409,17 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
         // Died: reap it and say how.
         close(w.fd);
         int status = 0;
-        while (waitpid(w.pid, &status, 0) < 0 && errno == EINTR) {
+        struct rusage usage {};
+        while (wait4(w.pid, &status, 0, &usage) < 0 && errno == EINTR) {
         }
         w.pid = -1;
         w.fd = -1;
         w.inbox.clear();
-        if (w.busy) {
+        uint64_t peak = static_cast<uint64_t>(usage.ru_maxrss) * 1024;  // ru_maxrss is in KiB
+        uint64_t bound = options_.memory_bound_bytes;
+        if (w.busy && bound > 0 && peak >= bound / 2) {
+          fail_point(w, MemoryBoundReason(bound, DeathReason(status)));
+        } else if (w.busy) {
           fail_point(w, DeathReason(status));
         } else if (++idle_deaths > 3 * static_cast<size_t>(jobs_) + 3) {
           outcome.ok = false;

@@ -6,6 +6,7 @@
 
 #include <csignal>
 #include <cstddef>
+#include <cstdint>
 #include <functional>
 #include <memory>
 #include <string>
@@ -26,13 +27,21 @@ struct WorkerPoolOptions {
   int jobs = 0;                ///< worker processes; 0 = number of online CPUs
   double timeout_s = 0;        ///< per-point wall-clock limit; 0 = derived (see EffectiveTimeout)
   size_t recycle_after = 200;  ///< a worker is replaced after this many points; 0 = never
+  /// Each worker's address-space bound in bytes (RLIMIT_AS, run/memory_bound.h);
+  /// 0 = none. A point that runs into it fails with MemoryBoundReason.
+  uint64_t memory_bound_bytes = 0;
   /// Test-only fault switch, read by the worker loop: a comma list of
-  /// kind:index with kind hang (sleep forever), segv (raise SIGSEGV) or exitcb
-  /// (report an engine error as if ngspice's exit callback fired, then quit).
+  /// kind:index with kind hang (sleep forever), segv (raise SIGSEGV), exitcb
+  /// (report an engine error as if ngspice's exit callback fired, then quit) or
+  /// hog (allocate and touch memory until the memory bound stops it; at most
+  /// 2 x the bound or 8 GiB, whichever is less, then fail the point).
   /// cmd_run fills it from the environment variable ZVSMAP_TEST_FAULT.
   std::string fault_spec;
   /// Test hook, called in the parent when `index` is sent to worker `pid`.
   std::function<void(size_t index, pid_t pid)> on_dispatch;
+  /// Called in the parent about every 250 ms while points run, also while
+  /// none finishes (drives a progress line's interval).
+  std::function<void()> on_tick;
 };
 
 /// Without a set timeout, until a point has finished: 300 s. Afterwards
@@ -51,7 +60,9 @@ struct PoolOutcome {
 /// collects encoded results. A worker that crashes, exceeds the timeout or
 /// reports a poisoned simulator is killed and replaced; its point gets a
 /// failed result with the reason ("crash (signal N)", "crash (exit N)",
-/// "timeout after N s", or the engine's message). Create it after everything
+/// "timeout after N s", or the engine's message; MemoryBoundReason when the
+/// point ran into the memory bound: an allocation failed, or the worker died
+/// after its peak resident size reached half the bound). Create it after everything
 /// the workers need is in memory: they inherit the parent's state by fork.
 class WorkerPool {
  public:

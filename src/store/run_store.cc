@@ -5,6 +5,7 @@
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
+#include <cstring>
 #include <limits>
 
 namespace zvsmap {
@@ -124,7 +125,7 @@ std::unique_ptr<RunStore> RunStore::Open(const std::string& path, std::string* e
     sqlite3_close(db);
     return nullptr;
   }
-  std::unique_ptr<RunStore> store(new RunStore(db));
+  std::unique_ptr<RunStore> store(new RunStore(db, path));
   sqlite3_busy_timeout(db, 5000);
   std::string why;
   // WAL: a commit is one append to the log; a killed process loses nothing
@@ -136,6 +137,26 @@ std::unique_ptr<RunStore> RunStore::Open(const std::string& path, std::string* e
     return nullptr;
   }
   return store;
+}
+
+std::string RunStore::Where(const std::string& message) const {
+  // SQLite's text ("database or disk is full") plus the OS's reason when a
+  // system call failed (ENOSPC, EIO, EACCES, ...).
+  int os_error = sqlite3_system_errno(db_);
+  return path_ + ": " + message +
+         (os_error != 0 ? std::string(" (") + std::strerror(os_error) + ")" : "");
+}
+
+bool RunStore::DeleteAllPoints(std::string* error) {
+  std::string why;
+  if (!Exec("BEGIN IMMEDIATE; DELETE FROM metrics; DELETE FROM edges; DELETE FROM points; COMMIT;",
+            &why)) {
+    std::string ignored;
+    Exec("ROLLBACK", &ignored);
+    *error = Where(why);
+    return false;
+  }
+  return true;
 }
 
 bool RunStore::Exec(const char* sql, std::string* error) {
@@ -156,11 +177,12 @@ std::string RunStore::GetMeta(const std::string& key) {
 }
 
 bool RunStore::SetMeta(const std::string& key, const std::string& value, std::string* error) {
+  if (GetMeta(key) == value && !value.empty()) return true;  // a rerun writes nothing it need not
   Statement q(db_, "INSERT OR REPLACE INTO meta(key, value) VALUES(?, ?)");
   q.Text(1, key);
   q.Text(2, value);
   if (!q.ok() || q.Step() != SQLITE_DONE) {
-    *error = std::string("run store: ") + sqlite3_errmsg(db_);
+    *error = Where(sqlite3_errmsg(db_));
     return false;
   }
   return true;
@@ -169,7 +191,7 @@ bool RunStore::SetMeta(const std::string& key, const std::string& value, std::st
 bool RunStore::ListPoints(std::vector<StoredPointKey>* out, std::string* error) {
   Statement q(db_, "SELECT idx, content_hash, status FROM points ORDER BY idx");
   if (!q.ok()) {
-    *error = std::string("run store: ") + sqlite3_errmsg(db_);
+    *error = Where(sqlite3_errmsg(db_));
     return false;
   }
   int rc;
@@ -177,7 +199,7 @@ bool RunStore::ListPoints(std::vector<StoredPointKey>* out, std::string* error) 
     out->push_back({static_cast<size_t>(q.ColInt(0)), q.ColText(1), StatusFromName(q.ColText(2))});
   }
   if (rc != SQLITE_DONE) {
-    *error = std::string("run store: ") + sqlite3_errmsg(db_);
+    *error = Where(sqlite3_errmsg(db_));
     return false;
   }
   return true;
@@ -186,14 +208,14 @@ bool RunStore::ListPoints(std::vector<StoredPointKey>* out, std::string* error) 
 bool RunStore::SavePoint(const Point& point, const std::string& content_hash, const PointResult& r,
                          std::string* error) {
   auto fail = [&](const char* what) {
-    *error = std::string("run store: ") + what + ": " + sqlite3_errmsg(db_);
+    *error = Where(std::string(what) + ": " + sqlite3_errmsg(db_));
     std::string ignored;
     Exec("ROLLBACK", &ignored);
     return false;
   };
   std::string why;
   if (!Exec("BEGIN IMMEDIATE", &why)) {
-    *error = "run store: " + why;
+    *error = Where(why);
     return false;
   }
   long long idx = static_cast<long long>(r.index);
@@ -252,7 +274,7 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
     }
   }
   if (!Exec("COMMIT", &why)) {
-    *error = "run store: " + why;
+    *error = Where(why);
     Exec("ROLLBACK", &why);
     return false;
   }
@@ -261,7 +283,7 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
 
 bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* error) {
   auto fail = [&]() {
-    *error = std::string("run store: ") + sqlite3_errmsg(db_);
+    *error = Where(sqlite3_errmsg(db_));
     return false;
   };
   Statement points(db_,

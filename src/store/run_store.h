@@ -6,6 +6,7 @@
 #include <map>
 #include <memory>
 #include <string>
+#include <utility>
 #include <vector>
 
 #include "run/point_result.h"
@@ -41,7 +42,7 @@ class RunStore {
 
   /// A meta value ("" when absent).
   std::string GetMeta(const std::string& key);
-  /// Sets a meta value.
+  /// Sets a meta value (writes nothing when it already has that value).
   bool SetMeta(const std::string& key, const std::string& value, std::string* error);
 
   /// Every stored point's index, content hash and status.
@@ -52,13 +53,20 @@ class RunStore {
   bool SavePoint(const Point& point, const std::string& content_hash, const PointResult& result,
                  std::string* error);
 
+  /// Removes every stored point (their rows, edges and metrics) in one
+  /// transaction; the meta values stay.
+  bool DeleteAllPoints(std::string* error);
+
   /// Every stored result by index.
   bool LoadResults(std::map<size_t, PointResult>* out, std::string* error);
 
  private:
-  explicit RunStore(sqlite3* db) : db_(db) {}
+  RunStore(sqlite3* db, std::string path) : db_(db), path_(std::move(path)) {}
   bool Exec(const char* sql, std::string* error);
+  /// "PATH: message (OS reason)": every error names the store file.
+  std::string Where(const std::string& message) const;
   sqlite3* db_;
+  std::string path_;
 };
 
 }  // namespace zvsmap

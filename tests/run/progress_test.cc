@@ -3,8 +3,10 @@
 
 #include <gtest/gtest.h>
 
+#include <chrono>
 #include <cstdio>
 #include <string>
+#include <thread>
 
 namespace zvsmap {
 namespace {
@@ -71,6 +73,37 @@ TEST(ProgressTest, TerminalModeRedrawsInPlace) {
   // Carriage return + ECMA-48 "erase in line" (CSI K), no newline.
   EXPECT_EQ(text.find('\n'), std::string::npos);
   EXPECT_NE(text.find("\r1/3 done, 0 failed"), std::string::npos);
+}
+
+TEST(ProgressTest, TickPrintsAPlainLineOncePerIntervalWhileNothingFinishes) {
+  char* buf = nullptr;
+  size_t size = 0;
+  FILE* f = open_memstream(&buf, &size);
+  {
+    ProgressReporter p(f, ProgressReporter::Mode::kPlain, 6, 0, 0, 0.2);
+    p.Tick();  // too soon after the first line
+    std::this_thread::sleep_for(std::chrono::milliseconds(250));
+    p.Tick();  // the interval has passed: a line although no point finished
+    p.Tick();  // too soon again
+  }
+  std::fclose(f);
+  std::string text(buf, size);
+  free(buf);
+  EXPECT_EQ(text, "zvsmap: 0/6 done, 0 failed\nzvsmap: 0/6 done, 0 failed\n");
+}
+
+TEST(ProgressTest, TickIsSilentWhenQuiet) {
+  char* buf = nullptr;
+  size_t size = 0;
+  FILE* f = open_memstream(&buf, &size);
+  {
+    ProgressReporter p(f, ProgressReporter::Mode::kQuiet, 6, 0, 0, 0);
+    p.Tick();
+  }
+  std::fclose(f);
+  std::string text(buf, size);
+  free(buf);
+  EXPECT_EQ(text, "");
 }
 
 }  // namespace

@@ -9,11 +9,13 @@
 
 #include <algorithm>
 #include <cstdlib>
+#include <cstring>
 #include <map>
 #include <set>
 #include <string>
 #include <thread>
 
+#include "run/memory_bound.h"
 #include "sim/ngspice_simulator.h"
 
 namespace zvsmap {
@@ -265,6 +267,131 @@ TEST(WorkerPoolNgspiceTest, HangingPointTimesOutAndTheRestComplete) {
   ASSERT_EQ(results.size(), 5u);
   EXPECT_EQ(results[1].reason, "timeout after 2 s");
   for (size_t i : {0, 2, 3, 4}) EXPECT_EQ(results[i].status, PointStatus::kOk) << results[i].reason;
+}
+
+// --- the memory bound and the tick ---
+
+constexpr uint64_t kBound = 256ull << 20;
+
+TEST(WorkerPoolTest, APointPastTheMemoryBoundFailsWithThatReason) {
+  if (!MemoryBoundAvailable()) GTEST_SKIP() << "no memory bound under AddressSanitizer";
+  WorkerPoolOptions options;
+  options.jobs = 1;
+  options.memory_bound_bytes = kBound;
+  auto greedy_on_one = [](size_t index, Simulator& sim) {
+    if (index == 1) {
+      std::vector<char> big(1ull << 30, 1);  // 1 GiB, four times the bound
+      EXPECT_EQ(big[12345], 1);              // not reached: the allocation throws
+    }
+    return Echo(index, sim);
+  };
+  WorkerPool pool(greedy_on_one, NoSim(), options);
+  auto results = RunAll(pool, 4);
+  ASSERT_EQ(results.size(), 4u);
+  EXPECT_EQ(results[1].status, PointStatus::kFailed);
+  EXPECT_EQ(results[1].reason,
+            "memory bound: the worker reached its 256 MiB limit (--worker-memory)");
+  for (size_t i : {0, 2, 3}) EXPECT_EQ(results[i].status, PointStatus::kOk) << results[i].reason;
+}
+
+TEST(WorkerPoolTest, CCodeThatCrashesOnAFailedMallocNearTheBoundIsWordedAsTheBound) {
+  if (!MemoryBoundAvailable()) GTEST_SKIP() << "no memory bound under AddressSanitizer";
+  WorkerPoolOptions options;
+  options.jobs = 1;
+  options.memory_bound_bytes = kBound;
+  // Like C code that does not check malloc: touch blocks until malloc fails,
+  // then die of it.
+  auto crash_on_two = [](size_t index, Simulator& sim) {
+    if (index == 2) {
+      for (;;) {
+        void* block = std::malloc(4u << 20);
+        if (block == nullptr) {
+          signal(SIGSEGV, SIG_DFL);
+          raise(SIGSEGV);
+        }
+        std::memset(block, 1, 4u << 20);
+      }
+    }
+    return Echo(index, sim);
+  };
+  WorkerPool pool(crash_on_two, NoSim(), options);
+  auto results = RunAll(pool, 4);
+  ASSERT_EQ(results.size(), 4u);
+  EXPECT_EQ(results[2].reason,
+            "memory bound: the worker reached its 256 MiB limit (--worker-memory); crash "
+            "(signal 11)");
+  for (size_t i : {0, 1, 3}) EXPECT_EQ(results[i].status, PointStatus::kOk) << results[i].reason;
+}
+
+TEST(WorkerPoolTest, ACrashFarBelowTheBoundStaysACrash) {
+  WorkerPoolOptions options;
+  options.jobs = 1;
+  options.memory_bound_bytes = 4ull << 30;
+  options.fault_spec = "segv:0";
+  WorkerPool pool(Echo, NoSim(), options);
+  auto results = RunAll(pool, 2);
+  EXPECT_EQ(results[0].reason, "crash (signal 11)");
+  EXPECT_EQ(results[1].status, PointStatus::kOk);
+}
+
+TEST(WorkerPoolTest, HogFaultIsStoppedByTheBound) {
+  if (!MemoryBoundAvailable()) GTEST_SKIP() << "no memory bound under AddressSanitizer";
+  WorkerPoolOptions options;
+  options.jobs = 1;
+  options.memory_bound_bytes = kBound;
+  options.fault_spec = "hog:0";
+  WorkerPool pool(Echo, NoSim(), options);
+  auto results = RunAll(pool, 2);
+  EXPECT_EQ(results[0].reason,
+            "memory bound: the worker reached its 256 MiB limit (--worker-memory)");
+  EXPECT_EQ(results[1].status, PointStatus::kOk);
+}
+
+TEST(WorkerPoolTest, TheTickKeepsComingWhileAPointHangs) {
+  WorkerPoolOptions options;
+  options.jobs = 1;
+  options.timeout_s = 1.5;
+  options.fault_spec = "hang:0";
+  int ticks = 0;
+  options.on_tick = [&ticks] { ++ticks; };
+  WorkerPool pool(Echo, NoSim(), options);
+  auto results = RunAll(pool, 1);
+  EXPECT_EQ(results[0].reason, "timeout after 1.5 s");
+  // The pool polls at most 250 ms at a time: 1.5 s of hanging gives about 6
+  // ticks; 3 leaves room for a loaded machine.
+  EXPECT_GE(ticks, 3);
+}
+
+TEST(WorkerPoolNgspiceTest, NgspiceRunningIntoTheMemoryBoundIsWordedAsTheBound) {
+  if (!MemoryBoundAvailable()) GTEST_SKIP() << "no memory bound under AddressSanitizer";
+  WorkerPoolOptions options;
+  options.jobs = 1;
+  options.memory_bound_bytes = kBound;
+  // 1 ms in 10 ps steps: ngspice sizes its vectors for 1e8 points (800 MB
+  // each) before it starts, far past the 256 MiB bound.
+  auto long_on_one = [](size_t index, Simulator& sim) {
+    if (index != 1) {
+      PointResult good = Simulate(0, sim);  // the good netlist
+      good.index = index;
+      return good;
+    }
+    SimulationOutput out = sim.Run(
+        "long\nV1 in 0 DC 1\nR1 in out 1k\nC1 out 0 1n IC=0\n.tran 10p 1m 0 10p uic\n.end\n",
+        {"v(out)"}, 1e-3);
+    PointResult r;
+    r.index = index;
+    r.status = out.ok ? PointStatus::kOk : PointStatus::kFailed;
+    r.reason = out.error;
+    return r;
+  };
+  WorkerPool pool(long_on_one, Ngspice(), options);
+  auto results = RunAll(pool, 3);
+  ASSERT_EQ(results.size(), 3u);
+  const std::string prefix =
+      "memory bound: the worker reached its 256 MiB limit (--worker-memory); engine error: ";
+  EXPECT_EQ(results[1].reason.rfind(prefix, 0), 0u) << results[1].reason;
+  EXPECT_NE(results[1].reason.find("can't allocate"), std::string::npos) << results[1].reason;
+  for (size_t i : {0, 2}) EXPECT_EQ(results[i].status, PointStatus::kOk) << results[i].reason;
 }
 
 }  // namespace
