@@ -19,7 +19,7 @@
 #include <filesystem>
 #include <map>
 
-#include "run/result_codec.h"
+#include "result/result_codec.h"
 
 namespace zvsmap {
 namespace {

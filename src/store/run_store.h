@@ -8,7 +8,7 @@
 #include <string>
 #include <vector>
 
-#include "run/point_result.h"
+#include "result/point_result.h"
 #include "sweep/point.h"
 
 struct sqlite3;
