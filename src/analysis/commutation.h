@@ -5,7 +5,7 @@
 #include <vector>
 
 #include "analysis/edge_finder.h"
-#include "analysis/edge_metrics.h"
+#include "result/edge_metrics.h"
 #include "core/expression.h"
 #include "netlist/template.h"
 #include "sim/waveforms.h"

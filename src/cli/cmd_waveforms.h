@@ -5,7 +5,7 @@
 #include <string>
 #include <vector>
 
-#include "run/point_result.h"
+#include "result/point_result.h"
 #include "run/sweep_setup.h"
 
 namespace zvsmap::cli {

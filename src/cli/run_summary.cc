@@ -3,7 +3,7 @@
 #include <cstdio>
 
 #include "cli/exit_codes.h"
-#include "handcalc/disagreement_summary.h"
+#include "report/disagreement_summary.h"
 #include "report/report_set.h"
 #include "run/progress.h"
 #include "run/run_plan.h"

@@ -5,7 +5,7 @@
 #include <string>
 #include <vector>
 
-#include "analysis/edge_metrics.h"
+#include "result/edge_metrics.h"
 #include "core/expression.h"
 #include "handcalc/hand_calculation.h"
 #include "netlist/template.h"

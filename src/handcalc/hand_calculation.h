@@ -6,7 +6,7 @@
 #include <string>
 #include <vector>
 
-#include "analysis/edge_metrics.h"
+#include "result/edge_metrics.h"
 #include "core/diagnostic.h"
 #include "core/expression.h"
 #include "handcalc/topology_model.h"

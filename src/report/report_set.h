@@ -5,7 +5,7 @@
 #include <vector>
 
 #include "netlist/template.h"
-#include "run/point_result.h"
+#include "result/point_result.h"
 #include "sweep/point.h"
 #include "sweep/sweep_spec.h"
 

@@ -7,7 +7,7 @@
 #include "netlist/device_models.h"
 #include "netlist/render.h"
 #include "netlist/template.h"
-#include "run/point_result.h"
+#include "result/point_result.h"
 #include "sim/simulator.h"
 #include "sweep/point.h"
 #include "sweep/sweep_spec.h"

@@ -7,7 +7,7 @@
 #include <cstdio>
 #include <string>
 
-#include "run/point_result.h"
+#include "result/point_result.h"
 
 namespace zvsmap {
 

@@ -6,7 +6,7 @@
 #include <vector>
 
 #include "run/point_evaluator.h"
-#include "run/point_result.h"
+#include "result/point_result.h"
 #include "run/sweep_setup.h"
 #include "store/run_store.h"
 

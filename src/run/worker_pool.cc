@@ -24,8 +24,8 @@
 #include <stdexcept>
 #include <vector>
 
+#include "result/result_codec.h"
 #include "run/memory_bound.h"
-#include "run/result_codec.h"
 
 namespace zvsmap {
 namespace {

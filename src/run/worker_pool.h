@@ -12,7 +12,7 @@
 #include <string>
 #include <vector>
 
-#include "run/point_result.h"
+#include "result/point_result.h"
 #include "sim/simulator.h"
 
 namespace zvsmap {

@@ -9,7 +9,7 @@
 #include <utility>
 #include <vector>
 
-#include "run/point_result.h"
+#include "result/point_result.h"
 #include "sweep/point.h"
 
 struct sqlite3;

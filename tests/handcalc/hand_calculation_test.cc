@@ -10,7 +10,7 @@
 #include <cstdio>
 #include <fstream>
 
-#include "handcalc/disagreement_summary.h"
+#include "report/disagreement_summary.h"
 #include "netlist/render.h"
 #include "sweep/sweep_parser.h"
 

@@ -4,7 +4,7 @@
 #include <string>
 
 #include "core/diagnostic.h"
-#include "run/point_result.h"
+#include "result/point_result.h"
 #include "sim/ngspice_simulator.h"
 
 namespace zvsmap::testing_support {

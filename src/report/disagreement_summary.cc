@@ -1,4 +1,4 @@
-#include "handcalc/disagreement_summary.h"
+#include "report/disagreement_summary.h"
 
 #include <algorithm>
 #include <cmath>

@@ -1,4 +1,4 @@
-#include "analysis/edge_metrics.h"
+#include "result/edge_metrics.h"
 
 #include <limits>
 

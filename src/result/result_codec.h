@@ -3,7 +3,7 @@
 
 #include <string>
 
-#include "run/point_result.h"
+#include "result/point_result.h"
 
 namespace zvsmap {
 

@@ -1,4 +1,4 @@
-#include "run/result_codec.h"
+#include "result/result_codec.h"
 
 #include <cstdint>
 #include <cstring>

@@ -7,7 +7,7 @@
 #include <utility>
 #include <vector>
 
-#include "analysis/edge_metrics.h"
+#include "result/edge_metrics.h"
 
 namespace zvsmap {
 

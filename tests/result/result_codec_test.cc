@@ -1,5 +1,5 @@
 // Unit tests of the worker -> parent result encoding.
-#include "run/result_codec.h"
+#include "result/result_codec.h"
 
 #include <gtest/gtest.h>
 
