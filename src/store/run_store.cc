@@ -2,6 +2,7 @@
 
 #include <sqlite3.h>
 
+#include <cerrno>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
@@ -145,6 +146,8 @@ std::string RunStore::Where(const std::string& message) const {
   // SQLite's text ("database or disk is full") plus the OS's reason when a
   // system call failed (ENOSPC, EIO, EACCES, ...).
   int os_error = sqlite3_system_errno(db_);
+  // SQLite clears the system error when a write finds the disk full.
+  if (os_error == 0 && (sqlite3_errcode(db_) & 0xff) == SQLITE_FULL) os_error = ENOSPC;
   return path_ + ": " + message +
          (os_error != 0 ? std::string(" (") + std::strerror(os_error) + ")" : "");
 }

@@ -128,6 +128,18 @@ if [ "$(id -u)" -eq 0 ] && unshare -m true 2>/dev/null; then
     "$work/full.log" || fail "full disk message: $(cat "$work/full.log")"
   [ -f "$work/full.same" ] || fail "full disk changed the old edges.csv"
   grep -q "tmp-" "$work/full.ls" && fail "a temporary file stayed: $(cat "$work/full.ls")"
+  # Too small for the store itself: the store's error names it and the reason.
+  mkdir "$work/tiny"
+  unshare -m bash -c '
+    mount --make-rprivate /
+    mount -t tmpfs -o size=200k tmpfs "$1/tiny"
+    rc=0
+    "$2" run "$3" --out "$1/tiny" -j 1 2>"$1/tiny.log" || rc=$?
+    echo "$rc" >"$1/tiny.rc"
+  ' _ "$work" "$zvsmap" "$sweep" || fail "tiny disk set-up failed"
+  [ "$(cat "$work/tiny.rc")" -eq 1 ] || fail "store on a full disk: exit $(cat "$work/tiny.rc"), expected 1"
+  grep -qF "zvsmap: error: $work/tiny/run.sqlite: database or disk is full (No space left on device)" \
+    "$work/tiny.log" || fail "store full message: $(cat "$work/tiny.log")"
   echo "full disk: ok"
 else
   echo "full disk: skipped (needs root and unshare -m to mount a small tmpfs)"
