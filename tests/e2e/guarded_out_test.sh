@@ -54,6 +54,9 @@ waiting=$(grep -c "^zvsmap: 0/6 done, 0 failed" "$work/busy.log" || true)
   || fail "resume after the holder ended: $(cat "$work/resume.log")"
 
 # --- a store from another sweep ------------------------------------------------
+"$zvsmap" waveforms "$sweep" --out "$work/busy" --point 1 -q 2>"$work/wave.log" \
+  || fail "waveforms: $(cat "$work/wave.log")"
+ls "$work/busy/waveforms/point_1.raw" >/dev/null || fail "no waveforms saved"
 sed -e 's/values="0 4 8"/values="0 4 9"/' -e "s|file=\"../../../netlists/|file=\"$src/netlists/|" \
   "$sweep" >"$work/other.xml"
 rc=0
@@ -68,6 +71,8 @@ grep -q "^5,.*,9," "$work/busy/edges.csv" && fail "the refused run wrote reports
 grep -qF "$work/busy/run.sqlite holds the results of another sweep ($canonical), not of $work/other.xml: replaced (--rerun)" \
   "$work/replace.log" || fail "replacement not reported: $(cat "$work/replace.log")"
 grep -q "6 points: 6 ok" "$work/replace.log" || fail "replacement did not run the other sweep"
+ls "$work/busy/waveforms"/point_* >/dev/null 2>&1 && fail "the replaced sweep's waveforms stayed"
+grep -q "waveforms/point_" "$work/busy/index.html" && fail "index.html links the replaced waveforms"
 rc=0
 "$zvsmap" merge "$sweep" --out "$work/busy" "$work/src" 2>"$work/merge.log" || rc=$?
 [ "$rc" -eq 2 ] || fail "merge into another sweep's store exited $rc, expected 2"
