@@ -78,6 +78,11 @@ rc=0
 [ "$rc" -eq 2 ] || fail "merge into another sweep's store exited $rc, expected 2"
 grep -qF "holds the results of another sweep ($work/other.xml), not of $canonical; remove it or choose another --out" \
   "$work/merge.log" || fail "merge refusal: $(cat "$work/merge.log")"
+rc=0
+"$zvsmap" waveforms "$sweep" --out "$work/busy" --point 1 2>"$work/wave2.log" || rc=$?
+[ "$rc" -eq 2 ] || fail "waveforms of another sweep's run exited $rc, expected 2"
+grep -qF "holds the results of another sweep ($work/other.xml), not of $canonical; choose the run directory of this sweep" \
+  "$work/wave2.log" || fail "waveforms refusal: $(cat "$work/wave2.log")"
 
 # --- a closed pipe does not lose the reports --------------------------------------
 rc=0
