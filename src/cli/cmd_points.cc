@@ -28,7 +28,10 @@ void AddPointsCommand(CLI::App& app, int* exit_code) {
       *exit_code = kExitBadInput;
       return;
     }
-    for (const auto& p : sweep.points) std::printf("%zu  %s\n", p.index, p.Describe().c_str());
+    for (const auto& p : sweep.points) {
+      if (std::ferror(stdout)) break;  // the reader went away (EPIPE): stop printing
+      std::printf("%zu  %s\n", p.index, p.Describe().c_str());
+    }
     *exit_code = kExitOk;
   });
 }

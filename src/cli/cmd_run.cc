@@ -62,6 +62,24 @@ struct Options {
   std::string worker_memory;  ///< per-worker memory bound, e.g. "2G"; "" = the default
 };
 
+// Removes DIR/waveforms/point_*.{raw,svg}: the saved waveforms of a replaced
+// store's sweep, which index.html would otherwise show beside the new run.
+bool RemoveSavedWaveforms(const std::string& out_dir, std::string* error) {
+  std::error_code ec;
+  std::filesystem::directory_iterator it(std::filesystem::path(WaveformDir(out_dir)), ec);
+  if (ec) return true;  // none saved
+  for (const auto& entry : it) {
+    std::string name = entry.path().filename().string();
+    std::string ext = entry.path().extension().string();
+    if (name.rfind("point_", 0) != 0 || (ext != ".raw" && ext != ".svg")) continue;
+    if (!std::filesystem::remove(entry.path(), ec) && ec) {
+      *error = entry.path().string() + ": cannot remove: " + ec.message();
+      return false;
+    }
+  }
+  return true;
+}
+
 int Run(const Options& opts) {
   auto started = std::chrono::steady_clock::now();
   WaveformRequest wave_request;
@@ -138,7 +156,7 @@ int Run(const Options& opts) {
                    owner_message.c_str());
       return kExitBadInput;
     }
-    if (!store->DeleteAllPoints(&error)) {
+    if (!store->DeleteAllPoints(&error) || !RemoveSavedWaveforms(opts.out_dir, &error)) {
       std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
       return kExitInternal;
     }

@@ -23,6 +23,7 @@
 #include "run/waveform_export.h"
 #include "sim/ngspice_simulator.h"
 #include "store/run_store.h"
+#include "store/store_owner.h"
 
 namespace zvsmap::cli {
 
@@ -172,6 +173,11 @@ int Waveforms(const Options& opts) {
   if (std::filesystem::is_regular_file(store_path)) {
     std::string error;
     std::unique_ptr<RunStore> store = RunStore::Open(store_path.string(), &error);
+    if (store && !StoreBelongsTo(*store, store_path.string(), sweep.spec.path, &error)) {
+      std::fprintf(stderr, "zvsmap: error: %s; choose the run directory of this sweep\n",
+                   error.c_str());
+      return kExitBadInput;
+    }
     PointEvaluator evaluator(sweep.spec, sweep.tmpl);
     if (!store ||
         !CollectStoredResults(*store, PointContentHashes(sweep, evaluator), &results, &error)) {

@@ -2,6 +2,7 @@
 
 #include <sqlite3.h>
 
+#include <cerrno>
 #include <cmath>
 #include <cstdio>
 #include <cstdlib>
@@ -121,7 +122,9 @@ std::unique_ptr<RunStore> RunStore::Open(const std::string& path, std::string* e
   sqlite3* db = nullptr;
   if (sqlite3_open_v2(path.c_str(), &db, SQLITE_OPEN_READWRITE | SQLITE_OPEN_CREATE, nullptr) !=
       SQLITE_OK) {
-    *error = path + ": cannot open the run store: " + (db ? sqlite3_errmsg(db) : "out of memory");
+    int os_error = db ? sqlite3_system_errno(db) : 0;
+    *error = path + ": cannot open the run store: " + (db ? sqlite3_errmsg(db) : "out of memory") +
+             (os_error != 0 ? std::string(" (") + std::strerror(os_error) + ")" : "");
     sqlite3_close(db);
     return nullptr;
   }
@@ -133,7 +136,7 @@ std::unique_ptr<RunStore> RunStore::Open(const std::string& path, std::string* e
   // against power loss of the last commits), which is what a rerun needs.
   if (!store->Exec("PRAGMA journal_mode=WAL; PRAGMA synchronous=NORMAL;", &why) ||
       !store->Exec(kSchema, &why)) {
-    *error = path + ": not a usable run store: " + why;
+    *error = store->Where("not a usable run store: " + why);
     return nullptr;
   }
   return store;
@@ -143,6 +146,8 @@ std::string RunStore::Where(const std::string& message) const {
   // SQLite's text ("database or disk is full") plus the OS's reason when a
   // system call failed (ENOSPC, EIO, EACCES, ...).
   int os_error = sqlite3_system_errno(db_);
+  // SQLite clears the system error when a write finds the disk full.
+  if (os_error == 0 && (sqlite3_errcode(db_) & 0xff) == SQLITE_FULL) os_error = ENOSPC;
   return path_ + ": " + message +
          (os_error != 0 ? std::string(" (") + std::strerror(os_error) + ")" : "");
 }

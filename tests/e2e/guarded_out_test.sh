@@ -54,6 +54,9 @@ waiting=$(grep -c "^zvsmap: 0/6 done, 0 failed" "$work/busy.log" || true)
   || fail "resume after the holder ended: $(cat "$work/resume.log")"
 
 # --- a store from another sweep ------------------------------------------------
+"$zvsmap" waveforms "$sweep" --out "$work/busy" --point 1 -q 2>"$work/wave.log" \
+  || fail "waveforms: $(cat "$work/wave.log")"
+ls "$work/busy/waveforms/point_1.raw" >/dev/null || fail "no waveforms saved"
 sed -e 's/values="0 4 8"/values="0 4 9"/' -e "s|file=\"../../../netlists/|file=\"$src/netlists/|" \
   "$sweep" >"$work/other.xml"
 rc=0
@@ -68,11 +71,18 @@ grep -q "^5,.*,9," "$work/busy/edges.csv" && fail "the refused run wrote reports
 grep -qF "$work/busy/run.sqlite holds the results of another sweep ($canonical), not of $work/other.xml: replaced (--rerun)" \
   "$work/replace.log" || fail "replacement not reported: $(cat "$work/replace.log")"
 grep -q "6 points: 6 ok" "$work/replace.log" || fail "replacement did not run the other sweep"
+ls "$work/busy/waveforms"/point_* >/dev/null 2>&1 && fail "the replaced sweep's waveforms stayed"
+grep -q "waveforms/point_" "$work/busy/index.html" && fail "index.html links the replaced waveforms"
 rc=0
 "$zvsmap" merge "$sweep" --out "$work/busy" "$work/src" 2>"$work/merge.log" || rc=$?
 [ "$rc" -eq 2 ] || fail "merge into another sweep's store exited $rc, expected 2"
 grep -qF "holds the results of another sweep ($work/other.xml), not of $canonical; remove it or choose another --out" \
   "$work/merge.log" || fail "merge refusal: $(cat "$work/merge.log")"
+rc=0
+"$zvsmap" waveforms "$sweep" --out "$work/busy" --point 1 2>"$work/wave2.log" || rc=$?
+[ "$rc" -eq 2 ] || fail "waveforms of another sweep's run exited $rc, expected 2"
+grep -qF "holds the results of another sweep ($work/other.xml), not of $canonical; choose the run directory of this sweep" \
+  "$work/wave2.log" || fail "waveforms refusal: $(cat "$work/wave2.log")"
 
 # --- a closed pipe does not lose the reports --------------------------------------
 rc=0
@@ -128,6 +138,18 @@ if [ "$(id -u)" -eq 0 ] && unshare -m true 2>/dev/null; then
     "$work/full.log" || fail "full disk message: $(cat "$work/full.log")"
   [ -f "$work/full.same" ] || fail "full disk changed the old edges.csv"
   grep -q "tmp-" "$work/full.ls" && fail "a temporary file stayed: $(cat "$work/full.ls")"
+  # Too small for the store itself: the store's error names it and the reason.
+  mkdir "$work/tiny"
+  unshare -m bash -c '
+    mount --make-rprivate /
+    mount -t tmpfs -o size=200k tmpfs "$1/tiny"
+    rc=0
+    "$2" run "$3" --out "$1/tiny" -j 1 2>"$1/tiny.log" || rc=$?
+    echo "$rc" >"$1/tiny.rc"
+  ' _ "$work" "$zvsmap" "$sweep" || fail "tiny disk set-up failed"
+  [ "$(cat "$work/tiny.rc")" -eq 1 ] || fail "store on a full disk: exit $(cat "$work/tiny.rc"), expected 1"
+  grep -qF "zvsmap: error: $work/tiny/run.sqlite: database or disk is full (No space left on device)" \
+    "$work/tiny.log" || fail "store full message: $(cat "$work/tiny.log")"
   echo "full disk: ok"
 else
   echo "full disk: skipped (needs root and unshare -m to mount a small tmpfs)"

@@ -54,7 +54,7 @@ TEST(ReportSetTest, UnwritableFolderIsAnError) {
   ReportOutcome outcome;
   std::string error;
   EXPECT_FALSE(WriteReports(s.Input(), "/nonexistent/zvsmap", &outcome, &error));
-  EXPECT_EQ(error, "/nonexistent/zvsmap/edges.csv: cannot write");
+  EXPECT_EQ(error, "/nonexistent/zvsmap/edges.csv: cannot write: No such file or directory");
 }
 
 }  // namespace

@@ -80,9 +80,9 @@ TEST(ProgressTest, TickPrintsAPlainLineOncePerIntervalWhileNothingFinishes) {
   size_t size = 0;
   FILE* f = open_memstream(&buf, &size);
   {
-    ProgressReporter p(f, ProgressReporter::Mode::kPlain, 6, 0, 0, 0.2);
+    ProgressReporter p(f, ProgressReporter::Mode::kPlain, 6, 0, 0, 0.5);
     p.Tick();  // too soon after the first line
-    std::this_thread::sleep_for(std::chrono::milliseconds(250));
+    std::this_thread::sleep_for(std::chrono::milliseconds(600));
     p.Tick();  // the interval has passed: a line although no point finished
     p.Tick();  // too soon again
   }

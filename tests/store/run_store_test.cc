@@ -179,5 +179,14 @@ TEST(ContentHashTest, PointHashFollowsNetlistAndSettings) {
   EXPECT_EQ(a, PointContentHash("netlist A\n", other, tmpl));
 }
 
+TEST_F(RunStoreTest, UnopenableStoreNamesThePathAndTheSystemReason) {
+  std::string path = dir_ + "/absent/run.sqlite";
+  std::string error;
+  EXPECT_FALSE(RunStore::Open(path, &error));
+  EXPECT_EQ(error, path +
+                       ": cannot open the run store: unable to open database file (No such "
+                       "file or directory)");
+}
+
 }  // namespace
 }  // namespace zvsmap
