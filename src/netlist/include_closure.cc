@@ -184,7 +184,7 @@ class Expander {
       return false;
     }
     std::string text, message;
-    if (!ReadDeckFile(path, &text, &message)) {
+    if (!CheckFileName(path, &message) || !ReadDeckFile(path, &text, &message)) {
       *error = Diagnostic{named_at, message, named_line};
       return false;
     }

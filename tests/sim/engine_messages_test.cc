@@ -38,6 +38,9 @@ TEST(EngineMessagesTest, QuotedCardsGetTheirOrigin) {
   EXPECT_EQ(MapEngineLines("engine error: Error: unknown subckt: x1 a 0 nosuch", deck),
             "engine error: Error: unknown subckt: x1 a 0 nosuch [t.cir:12]");
   EXPECT_EQ(MapEngineLines("Timestep too small", deck), "Timestep too small");
+  // Inside a subcircuit ngspice 39 says "line no. 0": the card using the name.
+  EXPECT_EQ(MapEngineLines("Netlist line no. 0: Undefined parameter [bogus]", deck),
+            "Netlist line no. 0: Undefined parameter [bogus] [inc/a.inc:7]");
 }
 
 }  // namespace
