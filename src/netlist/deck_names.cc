@@ -90,16 +90,17 @@ Diagnostic Missing(const Template& tmpl, const SourceLocation& where, const std:
                what + " '" + name + "' (" + key + ") is not in the template's deck" +
                    (hint.empty() ? "" : " (did you mean '" + hint + "'?)"),
                {}};
-  for (const auto& a : AnnotationText(tmpl, where)) {
-    size_t at = Lower(a.text).find(key + "=" + name);
-    if (at == std::string::npos && key.find('=') == std::string::npos) {
-      at = Lower(a.text).find(name);
+  // The caret goes under `key=name`, else under the name (state vectors).
+  std::vector<AnnotationLine> lines = AnnotationText(tmpl, where);
+  for (const std::string& needle : {key + "=" + name, name}) {
+    for (const auto& a : lines) {
+      size_t at = Lower(a.text).find(needle);
+      if (at == std::string::npos) continue;
+      d.where.line = a.line;
+      d.where.column = static_cast<int>(at + 1);
+      d.source_line = a.text;
+      return d;
     }
-    if (at == std::string::npos) continue;
-    d.where.line = a.line;
-    d.where.column = static_cast<int>(at + 1);
-    d.source_line = a.text;
-    break;
   }
   return d;
 }

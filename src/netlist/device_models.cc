@@ -234,18 +234,19 @@ bool CheckDeviceTokens(const DeviceSpec& spec, Diagnostic* error) {
     }
     return std::string();
   };
-  std::string bad = control(spec.file_as_written);
-  if (!bad.empty()) return fail(spec.file_where, "the file name", "holds " + bad);
+  std::string why;
+  if (!CheckFileName(spec.file_as_written, &why)) return fail(spec.file_where, "model file:", why);
+  std::string bad;
   bad = control(spec.name);
   if (!bad.empty()) return fail(spec.where, "the name", "holds " + bad);
   if (!spec.section.empty() && !IsNameToken(spec.section)) {
-    return fail(spec.where, "section '" + spec.section + "'",
+    return fail(spec.where, "section '" + Printable(spec.section) + "'",
                 "is not a library section name (letters, digits and _ . - only)");
   }
   if (!IsNameToken(spec.subckt)) {
-    return fail(spec.subckt_where, "subckt '" + spec.subckt + "'", "is not a subcircuit name");
+    return fail(spec.subckt_where, "subckt '" + Printable(spec.subckt) + "'",
+                "is not a subcircuit name");
   }
-  std::string why;
   if (!CheckParamListToken(spec.params, &why)) return fail(spec.where, "params", why);
   for (const PinTie& tie : spec.pins) {
     const std::string& to = tie.to;

@@ -91,7 +91,7 @@ bool SplitCards(const std::string& text, const std::string& path, bool has_title
                   "a continuation line ('+') with no card before it in this file", raw);
       return false;
     }
-    target->text += " " + Trim(raw).substr(1);
+    target->text += " " + Trim(Trim(raw).substr(1));
     // The joined card is checked again as a whole (e.g. `.options` + `+ interp`).
     if (!ClassifyCard(target->text, &target->cls, &reason, &column)) {
       *error = At(
@@ -184,7 +184,7 @@ class Expander {
       return false;
     }
     std::string text, message;
-    if (!ReadDeckFile(path, &text, &message)) {
+    if (!CheckFileName(path, &message) || !ReadDeckFile(path, &text, &message)) {
       *error = Diagnostic{named_at, message, named_line};
       return false;
     }

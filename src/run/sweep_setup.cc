@@ -2,6 +2,7 @@
 
 #include "handcalc/hand_calculation.h"
 #include "netlist/deck_names.h"
+#include "netlist/deck_rules.h"
 #include "sweep/sweep_expand.h"
 #include "sweep/sweep_parser.h"
 
@@ -15,6 +16,11 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     return false;
   }
   if (max_points_override > 0) out->spec.max_points = max_points_override;
+  std::string why;
+  if (!CheckFileName(out->spec.template_path, &why)) {
+    errors->push_back(Diagnostic{out->spec.template_where, "template: " + why, {}});
+    return false;
+  }
   if (!LoadTemplate(out->spec.template_path, &out->tmpl, &error)) {
     errors->push_back(error);
     return false;

@@ -61,6 +61,31 @@ const SourceLocation* QuotedCard(const std::string& message, const Deck& deck) {
   return best;
 }
 
+bool IsNameChar(char c) { return std::isalnum(static_cast<unsigned char>(c)) || c == '_'; }
+
+// "Undefined parameter [name]" inside a subcircuit comes with "line no. 0":
+// the first user card that uses the name.
+const SourceLocation* CardUsingParameter(const std::string& message, const Deck& deck) {
+  std::string lower = Lower(message);
+  size_t at = lower.find("undefined parameter [");
+  if (at == std::string::npos) return nullptr;
+  size_t begin = at + std::char_traits<char>::length("undefined parameter [");
+  size_t end = lower.find(']', begin);
+  if (end == std::string::npos || end == begin) return nullptr;
+  std::string name = lower.substr(begin, end - begin);
+  for (size_t i = 1; i < deck.lines.size(); ++i) {
+    const DeckLine& l = deck.lines[i];
+    if (l.origin.file.empty() || IsCommentOrBlank(l.text)) continue;
+    std::string card = Lower(l.text);
+    for (size_t p = card.find(name); p != std::string::npos; p = card.find(name, p + 1)) {
+      bool starts = p == 0 || !IsNameChar(card[p - 1]);
+      bool ends = p + name.size() >= card.size() || !IsNameChar(card[p + name.size()]);
+      if (starts && ends) return &l.origin;
+    }
+  }
+  return nullptr;
+}
+
 }  // namespace
 
 std::string MapEngineLines(const std::string& message, const Deck& deck) {
@@ -73,7 +98,9 @@ std::string MapEngineLines(const std::string& message, const Deck& deck) {
   }
   if (!message.empty() && message.back() == '\n') out += "\n";
   if (!mapped) {
-    if (const SourceLocation* origin = QuotedCard(message, deck)) {
+    const SourceLocation* origin = QuotedCard(message, deck);
+    if (!origin) origin = CardUsingParameter(message, deck);
+    if (origin) {
       bool newline = !out.empty() && out.back() == '\n';
       if (newline) out.pop_back();
       out += " [" + Where(*origin) + "]";

@@ -14,7 +14,9 @@ namespace zvsmap {
 /// `message` with each reference to a line of `deck` followed by the
 /// user's file:line in brackets, e.g. "Netlist line no. 4 [buck.cir:12]:".
 /// A message that names no line number but quotes a card of the deck gets
-/// " [file:line]" appended. Lines zvsmap added are left as they are.
+/// " [file:line]" appended, as does "Undefined parameter [name]" (ngspice
+/// gives "line no. 0" inside subcircuits) the first card using the name.
+/// Lines zvsmap added are left as they are.
 std::string MapEngineLines(const std::string& message, const Deck& deck);
 
 }  // namespace zvsmap

@@ -198,7 +198,7 @@ TEST_F(DeviceModelsTest, RewritesInstancesWithThePinMapAndTies) {
   EXPECT_EQ(a,
             "title\n* zvsmap switch models\n* invented models for the test\n"
             ".subckt fet_sdg S D G params: rg=1\nvch D x 0\nr1 x S 1\n.ends\n"
-            ".SUBCKT Fet5 D G S KS  TJ\nr1 D S 1\n.ENDS\n"
+            ".SUBCKT Fet5 D G S KS TJ\nr1 D S 1\n.ENDS\n"
             "vzt_xls_tj zt_xls_tj 0 dc 25\n"
             "* wrapper: i(v.xls.vch) is the drain terminal current of Fet5\n"
             ".subckt zvsmap_w_xls d g s t_tj\nvch d d_dut 0\n"
