@@ -18,7 +18,7 @@ std::vector<std::string> PointContentHashes(const PreparedSweep& sweep,
                                             const PointEvaluator& evaluator);
 
 /// Every point's stored result whose content hash matches `hashes`, index
-/// for index; a point without one is status kFailed with reason "not run".
+/// for index; a point without one is NotRunResult (status kNotRun, reason "not run").
 bool CollectStoredResults(RunStore& store, const std::vector<std::string>& hashes,
                           std::vector<PointResult>* results, std::string* error);
 
