@@ -95,6 +95,27 @@ bool EvaluatePrediction(const PredictionSpec& p, const std::map<std::string, Kno
   return false;
 }
 
+// A <predict> without `compare`: its value under its own name.
+Comparison Unpaired(const Prediction& p) {
+  Comparison c;
+  c.tag = p.name;
+  c.predicted = p.value;
+  return c;
+}
+
+// A prediction set beside the simulated value `sim` of its metric.
+Comparison Compare(const Prediction& p, double sim) {
+  Comparison c;
+  c.metric = p.metric;
+  c.tag = p.user ? p.name : p.tag.empty() ? std::string("pred") : p.tag;
+  c.predicted = p.value;
+  c.difference = sim - p.value;
+  c.relative_difference =
+      (p.value != 0 && std::isfinite(p.value)) ? c.difference / std::fabs(p.value) : NAN;
+  if (!std::isnan(p.value)) c.beyond_tolerance = p.tolerance.Exceeded(p.value, sim);
+  return c;
+}
+
 }  // namespace
 
 double SimulatedValue(const EdgeMeasurement& edge, const std::string& metric) {
@@ -183,22 +204,11 @@ bool AddPredictionMetrics(const SweepSpec& spec, const Template& tmpl, const Var
       for (const Prediction& p : cell.predictions) {
         if (!p.edge.empty() && p.edge != e.edge) continue;
         if (p.metric.empty()) {
-          if (p.user) e.metrics.push_back({p.name, p.value});
+          if (p.user) e.comparisons.push_back(Unpaired(p));
           continue;
         }
         if (p.edge.empty()) continue;
-        std::string base = p.metric + "__" +
-                           (p.user          ? p.name
-                            : p.tag.empty() ? std::string("pred")
-                                            : p.tag);
-        double sim = SimulatedValue(e, p.metric), pred = p.value;
-        double diff = sim - pred;
-        double rel = (pred != 0 && std::isfinite(pred)) ? diff / std::fabs(pred) : NAN;
-        double beyond = std::isnan(pred) ? NAN : (p.tolerance.Exceeded(pred, sim) ? 1.0 : 0.0);
-        e.metrics.push_back({base, pred});
-        e.metrics.push_back({base + "__diff", diff});
-        e.metrics.push_back({base + "__rel_diff", rel});
-        e.metrics.push_back({base + "__beyond_tol", beyond});
+        e.comparisons.push_back(Compare(p, SimulatedValue(e, p.metric)));
       }
     }
   }

@@ -43,18 +43,20 @@ struct HandCalculation {
 bool ComputeHandCalculation(const SweepSpec& spec, const Template& tmpl, const Variables& resolved,
                             HandCalculation* out, Diagnostic* error);
 
-/// Appends, to each measured edge, the predictions paired with it. For a
-/// prediction paired with metric M, columns M__pred (the built-in model's; a
-/// <predict> uses its own name instead of "pred"), then M__pred__diff
-/// (simulated - predicted), M__pred__rel_diff (diff / |predicted|; NaN when
-/// the prediction is 0) and M__pred__beyond_tol (1/0; NaN when nothing was
-/// predicted). The metric "zvs_full" is the simulated ZVS class as a number
-/// (1 full, 0 partial or hard); the built-in model pairs its charge-based ZVS
-/// verdict with it as zvs_full__pred and its energy-based one as
-/// zvs_full__pred_energy. A <predict> without `compare` adds a column with its own name
-/// (on its edge's rows, or every row of its cell without `edge`). Returns
-/// false with the first problem of ComputeHandCalculation (the columns are
-/// still added, NaN where the calculation failed).
+/// Appends, to each measured edge, its predictions as typed comparisons
+/// (EdgeMeasurement::comparisons; the CSV shows them as the columns of
+/// FlatColumns). A prediction paired with metric M gets tag "pred" (the
+/// built-in model's; a model may give its own tag, a <predict> uses its own
+/// name), the difference simulated - predicted, the relative difference
+/// diff / |predicted| (NaN when the prediction is 0) and whether it is beyond
+/// its tolerance (empty when nothing was predicted). The metric "zvs_full" is
+/// the simulated ZVS class as a number (1 full, 0 partial or hard); the
+/// built-in model pairs its charge-based ZVS verdict with it as tag "pred" and
+/// its energy-based one as "pred_energy". A <predict> without `compare` is an
+/// unpaired comparison under its own name (on its edge, or every edge of its
+/// cell without `edge`). Returns false with the first problem of
+/// ComputeHandCalculation (the comparisons are still added, NaN where the
+/// calculation failed).
 bool AddPredictionMetrics(const SweepSpec& spec, const Template& tmpl, const Variables& resolved,
                           std::vector<EdgeMeasurement>* edges, Diagnostic* error);
 

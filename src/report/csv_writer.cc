@@ -23,22 +23,40 @@ std::string CsvNumber(double value) {
   return buf;
 }
 
+namespace {
+
+void AddColumn(const std::string& name, std::vector<std::string>* columns) {
+  for (const auto& c : *columns) {
+    if (c == name) return;
+  }
+  columns->push_back(name);
+}
+
+// The measured metrics, then the hand-calculation comparisons flattened
+// (FlatColumns): each list the union over all rows, in order of first appearance.
+std::vector<std::string> ValueColumns(const std::vector<PointResult>& results) {
+  std::vector<std::string> metrics, comparisons;
+  for (const auto& r : results) {
+    for (const auto& e : r.edges) {
+      for (const auto& m : e.metrics) AddColumn(m.column, &metrics);
+      for (const auto& c : e.comparisons) {
+        for (const FlatColumn& f : FlatColumns(c)) AddColumn(f.name, &comparisons);
+      }
+    }
+  }
+  for (const auto& c : comparisons) AddColumn(c, &metrics);
+  return metrics;
+}
+
+}  // namespace
+
 void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
                    const std::vector<PointResult>& results) {
   std::vector<std::string> params;
   if (!points.empty()) {
     for (const auto& v : points.front().values) params.push_back(v.name);
   }
-  std::vector<std::string> metrics;
-  for (const auto& r : results) {
-    for (const auto& e : r.edges) {
-      for (const auto& m : e.metrics) {
-        bool seen = false;
-        for (const auto& c : metrics) seen = seen || c == m.column;
-        if (!seen) metrics.push_back(m.column);
-      }
-    }
-  }
+  std::vector<std::string> metrics = ValueColumns(results);
 
   // "\r\n" line ends, as RFC 4180 specifies.
   const char* eol = "\r\n";

@@ -18,8 +18,10 @@ std::string CsvNumber(double value);
 
 /// Writes the edge table. `results[i]` must belong to `points[i]`; rows come
 /// in point order, edges in the order measured. Columns: point, every
-/// parameter, cell, edge, zvs_class, every metric (union over rows, first
-/// appearance order), status, reason, wall_time_s (the only timing column).
+/// parameter, cell, edge, zvs_class, every metric, then every comparison's
+/// FlatColumns (each the union over rows, first appearance order), status,
+/// reason, wall_time_s (the only timing column). The only writer that turns
+/// comparisons into columns.
 /// A point without edges (failed) gets one row with empty edge and metrics.
 void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
                    const std::vector<PointResult>& results);

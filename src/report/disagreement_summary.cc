@@ -18,8 +18,6 @@ struct Pair {
   bool any = false;
 };
 
-constexpr const char* kRel = "__rel_diff";
-
 }  // namespace
 
 std::vector<std::string> DisagreementSummary(const std::vector<Point>& points,
@@ -27,29 +25,23 @@ std::vector<std::string> DisagreementSummary(const std::vector<Point>& points,
                                              size_t max_pairs) {
   std::map<std::string, Pair> pairs;
   std::vector<std::string> order;
-  const size_t rel_len = std::string(kRel).size();
   for (size_t i = 0; i < results.size() && i < points.size(); ++i) {
     for (const EdgeMeasurement& e : results[i].edges) {
-      for (const Metric& m : e.metrics) {
-        if (m.column.size() <= rel_len ||
-            m.column.compare(m.column.size() - rel_len, rel_len, kRel) != 0) {
-          continue;
-        }
-        std::string base = m.column.substr(0, m.column.size() - rel_len);
-        std::string label = e.cell + "." + e.edge + " " + base;
+      for (const Comparison& c : e.comparisons) {
+        if (!c.Paired()) continue;
+        std::string label = e.cell + "." + e.edge + " " + c.Name();
         auto inserted = pairs.emplace(label, Pair());
         if (inserted.second) order.push_back(label);
         Pair& p = inserted.first->second;
         p.label = label;
-        double flag = e.Get(base + "__beyond_tol");
-        if (!std::isnan(flag)) {
+        if (c.beyond_tolerance) {
           ++p.compared;
-          if (flag > 0.5) ++p.beyond;
+          if (*c.beyond_tolerance) ++p.beyond;
         }
-        if (std::isnan(m.value)) continue;
-        if (!p.any || std::fabs(m.value) > std::fabs(p.worst)) {
+        if (std::isnan(c.relative_difference)) continue;
+        if (!p.any || std::fabs(c.relative_difference) > std::fabs(p.worst)) {
           p.any = true;
-          p.worst = m.value;
+          p.worst = c.relative_difference;
           p.worst_point = points[i].index;
           p.worst_where = points[i].Describe();
         }

@@ -11,7 +11,7 @@
 namespace zvsmap {
 
 /// Text lines (no trailing newline) listing, for the `max_pairs` prediction
-/// pairs (cell, edge, metric column from AddPredictionMetrics) with the
+/// pairs (cell, edge, paired Comparison from AddPredictionMetrics) with the
 /// largest relative difference, that difference, the point where it occurs
 /// and at how many points the pair is beyond its tolerance. Empty when no
 /// point carries a paired prediction. `results[i]` belongs to `points[i]`.

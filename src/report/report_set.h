@@ -13,7 +13,7 @@ namespace zvsmap {
 
 /// What the reports are made from: the sweep, its points and one result per
 /// point (results[i] belongs to points[i]; a point not run has no result and
-/// is passed as status kFailed with reason "not run").
+/// is passed as NotRunResult: status kNotRun, reason "not run").
 struct ReportInput {
   const SweepSpec& spec;
   const Template& tmpl;

@@ -53,7 +53,7 @@ void AddEdge(pugi::xml_node root, const ReportInput& input, const Grid& grid, co
   size_t worst_i = 0;
   for (size_t i = 0; i < input.results.size() && i < input.points.size(); ++i) {
     const PointResult& r = input.results[i];
-    if (r.status == PointStatus::kFailed) {
+    if (r.status == PointStatus::kFailed || r.status == PointStatus::kNotRun) {
       ++failed;
       continue;
     }
@@ -150,7 +150,7 @@ void BuildSummaryXml(const ReportInput& input, const std::vector<RequirementVerd
   int ran = 0, failed = 0, unsettled = 0;
   for (const PointResult& r : input.results) {
     if (r.status == PointStatus::kOk) ++ran;
-    if (r.status == PointStatus::kFailed) ++failed;
+    if (r.status == PointStatus::kFailed || r.status == PointStatus::kNotRun) ++failed;
     if (r.status == PointStatus::kUnsettled) ++unsettled;
   }
   pugi::xml_node run = root.append_child("run");

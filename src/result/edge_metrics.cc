@@ -17,7 +17,20 @@ const char* ZvsClassName(ZvsClass c) {
 double EdgeMeasurement::Get(const std::string& column) const {
   for (const auto& m : metrics)
     if (m.column == column) return m.value;
+  for (const auto& c : comparisons) {
+    for (const FlatColumn& f : FlatColumns(c)) {
+      if (f.name == column) return f.value;
+    }
+  }
   return std::numeric_limits<double>::quiet_NaN();
+}
+
+const Comparison* EdgeMeasurement::FindComparison(const std::string& metric,
+                                                  const std::string& tag) const {
+  for (const auto& c : comparisons) {
+    if (c.metric == metric && c.tag == tag) return &c;
+  }
+  return nullptr;
 }
 
 }  // namespace zvsmap

@@ -4,6 +4,8 @@
 #include <string>
 #include <vector>
 
+#include "result/comparison.h"
+
 namespace zvsmap {
 
 /// ZVS class of a turn-on, by the sweep's criterion (see README "ZVS class").
@@ -27,9 +29,14 @@ struct EdgeMeasurement {
   ZvsClass zvs = ZvsClass::kUnknown;
   std::string criterion;  ///< the ZVS criterion the class was judged by, e.g. "v_turn_on <= 10% of rail"
   std::vector<Metric> metrics;  ///< in a fixed order (see commutation.h)
+  /// The hand calculation beside the metrics (src/handcalc), in prediction order.
+  std::vector<Comparison> comparisons = {};
 
-  /// The value of a metric by column name, or NaN.
+  /// The value of a metric by column name, else of a comparison's CSV column
+  /// (see FlatColumns), else NaN.
   double Get(const std::string& column) const;
+  /// The comparison of `metric` tagged `tag`, or nullptr.
+  const Comparison* FindComparison(const std::string& metric, const std::string& tag) const;
 };
 
 }  // namespace zvsmap

@@ -2,31 +2,14 @@
 #pragma once
 
 #include <cstddef>
-#include <limits>
 #include <string>
-#include <utility>
 #include <vector>
 
 #include "result/edge_metrics.h"
+#include "result/point_status.h"
+#include "result/settle_record.h"
 
 namespace zvsmap {
-
-/// ok: measured in a settled period; failed: no measurement (reason says why);
-/// unsettled: did not reach periodic steady state within the limits.
-enum class PointStatus { kOk, kFailed, kUnsettled };
-
-/// "ok", "failed", "unsettled".
-const char* PointStatusName(PointStatus s);
-
-/// How a point reached (or did not reach) periodic steady state.
-struct SettleInfo {
-  std::string method;      ///< e.g. "periods"
-  int iterations = 0;      ///< Newton iterations (shooting) or 0
-  int periods = 0;         ///< switching periods simulated in all
-  double residual = std::numeric_limits<double>::quiet_NaN();  ///< final relative residual
-  /// The settled start-of-period state: (init param, value), in template order.
-  std::vector<std::pair<std::string, double>> initial_state;
-};
 
 /// One point's result, as the run store and the reports see it.
 struct PointResult {
@@ -35,8 +18,11 @@ struct PointResult {
   std::string reason;  ///< one line, empty when ok
   std::string log;     ///< the simulator's messages, kept when the point failed
   std::vector<EdgeMeasurement> edges;
-  SettleInfo settle;
+  SettleRecord settle;
   double wall_s = 0;   ///< wall-clock time spent on the point
 };
+
+/// The result of a point that has none: status kNotRun, reason "not run".
+PointResult NotRunResult(size_t index);
 
 }  // namespace zvsmap

@@ -6,7 +6,7 @@
 namespace zvsmap {
 namespace {
 
-constexpr uint8_t kFormat = 2;
+constexpr uint8_t kFormat = 3;
 // Upper bound for any count read back; a corrupt length must not make the
 // decoder reserve gigabytes.
 constexpr uint32_t kMaxCount = 1u << 24;
@@ -57,6 +57,50 @@ class Reader {
   size_t pos_ = 0;
 };
 
+// beyond_tolerance: 0 false, 1 true, 2 empty.
+void EncodeComparison(const Comparison& c, Writer* w) {
+  w->Str(c.metric);
+  w->Str(c.tag);
+  w->F64(c.predicted);
+  w->F64(c.difference);
+  w->F64(c.relative_difference);
+  w->U8(c.beyond_tolerance ? (*c.beyond_tolerance ? 1 : 0) : 2);
+}
+
+bool DecodeComparison(Reader* r, Comparison* c) {
+  uint8_t beyond = 0;
+  if (!r->Str(&c->metric) || !r->Str(&c->tag) || !r->F64(&c->predicted) ||
+      !r->F64(&c->difference) || !r->F64(&c->relative_difference) || !r->U8(&beyond) ||
+      beyond > 2) {
+    return false;
+  }
+  if (beyond < 2) c->beyond_tolerance = beyond == 1;
+  return true;
+}
+
+bool DecodeEdge(Reader* r, EdgeMeasurement* e) {
+  uint8_t zvs = 0;
+  uint32_t metric_count = 0, comparison_count = 0;
+  if (!r->Str(&e->cell) || !r->Str(&e->edge) || !r->U8(&zvs) ||
+      zvs > static_cast<uint8_t>(ZvsClass::kUnknown) || !r->Str(&e->criterion) ||
+      !r->U32(&metric_count) || metric_count > kMaxCount) {
+    return false;
+  }
+  e->zvs = static_cast<ZvsClass>(zvs);
+  for (uint32_t k = 0; k < metric_count; ++k) {
+    Metric m;
+    if (!r->Str(&m.column) || !r->F64(&m.value)) return false;
+    e->metrics.push_back(std::move(m));
+  }
+  if (!r->U32(&comparison_count) || comparison_count > kMaxCount) return false;
+  for (uint32_t k = 0; k < comparison_count; ++k) {
+    Comparison c;
+    if (!DecodeComparison(r, &c)) return false;
+    e->comparisons.push_back(std::move(c));
+  }
+  return true;
+}
+
 }  // namespace
 
 std::string EncodeResult(const PointResult& r) {
@@ -66,14 +110,14 @@ std::string EncodeResult(const PointResult& r) {
   w.U8(static_cast<uint8_t>(r.status));
   w.Str(r.reason);
   w.Str(r.log);
-  w.Str(r.settle.method);
+  w.U8(static_cast<uint8_t>(r.settle.method));
   w.I32(r.settle.iterations);
   w.I32(r.settle.periods);
   w.F64(r.settle.residual);
   w.U32(static_cast<uint32_t>(r.settle.initial_state.size()));
-  for (const auto& [name, value] : r.settle.initial_state) {
-    w.Str(name);
-    w.F64(value);
+  for (const auto& state : r.settle.initial_state) {
+    w.Str(state.init_param);
+    w.F64(state.value);
   }
   w.F64(r.wall_s);
   w.U32(static_cast<uint32_t>(r.edges.size()));
@@ -87,49 +131,41 @@ std::string EncodeResult(const PointResult& r) {
       w.Str(m.column);
       w.F64(m.value);
     }
+    w.U32(static_cast<uint32_t>(e.comparisons.size()));
+    for (const auto& c : e.comparisons) EncodeComparison(c, &w);
   }
   return w.Take();
 }
 
 bool DecodeResult(const std::string& data, PointResult* out) {
   Reader r(data);
-  uint8_t format = 0, status = 0;
+  uint8_t format = 0, status = 0, method = 0;
   uint64_t index = 0;
   int32_t iterations = 0, periods = 0;
   uint32_t edge_count = 0, state_count = 0;
   if (!r.U8(&format) || format != kFormat || !r.U64(&index) || !r.U8(&status) ||
-      status > static_cast<uint8_t>(PointStatus::kUnsettled) || !r.Str(&out->reason) ||
-      !r.Str(&out->log) || !r.Str(&out->settle.method) || !r.I32(&iterations) || !r.I32(&periods) ||
+      status > static_cast<uint8_t>(PointStatus::kNotRun) || !r.Str(&out->reason) ||
+      !r.Str(&out->log) || !r.U8(&method) || method > static_cast<uint8_t>(SettleMethod::kPeriods) ||
+      !r.I32(&iterations) || !r.I32(&periods) ||
       !r.F64(&out->settle.residual) || !r.U32(&state_count) || state_count > kMaxCount) {
     return false;
   }
   out->settle.initial_state.clear();
   for (uint32_t i = 0; i < state_count; ++i) {
-    std::pair<std::string, double> state;
-    if (!r.Str(&state.first) || !r.F64(&state.second)) return false;
+    SettledState state;
+    if (!r.Str(&state.init_param) || !r.F64(&state.value)) return false;
     out->settle.initial_state.push_back(std::move(state));
   }
   if (!r.F64(&out->wall_s) || !r.U32(&edge_count) || edge_count > kMaxCount) return false;
   out->index = static_cast<size_t>(index);
   out->status = static_cast<PointStatus>(status);
+  out->settle.method = static_cast<SettleMethod>(method);
   out->settle.iterations = iterations;
   out->settle.periods = periods;
   out->edges.clear();
   for (uint32_t i = 0; i < edge_count; ++i) {
     EdgeMeasurement e;
-    uint8_t zvs = 0;
-    uint32_t metric_count = 0;
-    if (!r.Str(&e.cell) || !r.Str(&e.edge) || !r.U8(&zvs) ||
-        zvs > static_cast<uint8_t>(ZvsClass::kUnknown) || !r.Str(&e.criterion) ||
-        !r.U32(&metric_count) || metric_count > kMaxCount) {
-      return false;
-    }
-    e.zvs = static_cast<ZvsClass>(zvs);
-    for (uint32_t k = 0; k < metric_count; ++k) {
-      Metric m;
-      if (!r.Str(&m.column) || !r.F64(&m.value)) return false;
-      e.metrics.push_back(std::move(m));
-    }
+    if (!DecodeEdge(&r, &e)) return false;
     out->edges.push_back(std::move(e));
   }
   return r.AtEnd();

@@ -7,7 +7,7 @@
 
 namespace zvsmap {
 
-/// Encodes every field of `result` (edges, metrics, settle info, log) into a
+/// Encodes every field of `result` (edges, metrics, comparisons, settle record, log) into a
 /// compact binary string. Doubles are stored as their raw IEEE-754 bits, so
 /// they round-trip exactly (NaN and infinities included). When a field is
 /// added to PointResult or EdgeMeasurement, extend EncodeResult and

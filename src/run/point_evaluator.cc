@@ -8,22 +8,11 @@
 #include "analysis/edge_finder.h"
 #include "core/spice_number.h"
 #include "handcalc/hand_calculation.h"
+#include "result/edge_identity.h"
 #include "sim/engine_messages.h"
 #include "sim/steady_state.h"
 
 namespace zvsmap {
-
-const char* PointStatusName(PointStatus s) {
-  switch (s) {
-    case PointStatus::kOk:
-      return "ok";
-    case PointStatus::kFailed:
-      return "failed";
-    case PointStatus::kUnsettled:
-      return "unsettled";
-  }
-  return "failed";
-}
 
 PointEvaluator::PointEvaluator(const SweepSpec& spec, const Template& tmpl)
     : spec_(spec), tmpl_(tmpl) {
@@ -185,14 +174,14 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
   options.max_newton = sim.max_newton;
   options.max_periods = sim.max_periods;
   options.chunk_periods = std::max(1, std::min(sim.settle_periods, sim.max_periods));
-  SteadyStateResult ss =
-      FindPeriodicSteadyState(simulator, render, vectors, states, period, options);
-  result.settle.method = ss.method;
+  SteadyStateResult ss = FindPeriodicSteadyState(simulator, render, vectors, states, period,
+                                                 options);
+  SettleMethodFromName(ss.method, &result.settle.method);
   result.settle.iterations = ss.iterations;
   result.settle.periods = ss.periods;
   result.settle.residual = ss.residual;
   for (size_t i = 0; i < states.size() && i < ss.state.size(); ++i) {
-    result.settle.initial_state.emplace_back(tmpl_.states[i].init_param, ss.state[i]);
+    result.settle.initial_state.push_back({tmpl_.states[i].init_param, ss.state[i]});
   }
   if (!ss.ok) {
     result.reason = "while settling: " + MapEngineLines(ss.error, last_deck);
@@ -224,7 +213,8 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
   for (const auto& cell : tmpl_.cells) {
     std::vector<EdgeTiming> edges = FindEdges(cell, out.waves, 0.02 * period);
     EdgeParams edge_params = EdgeParamsFor(cell, resolved);
-    for (const char* name : {"high_on", "low_on"}) {
+    for (EdgeKind kind : kEdgeKinds) {
+      const char* name = EdgeKindName(kind);
       auto it = std::find_if(edges.begin(), edges.end(),
                              [&](const EdgeTiming& e) { return e.edge == name; });
       if (it == edges.end()) {

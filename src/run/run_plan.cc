@@ -6,10 +6,6 @@
 
 namespace zvsmap {
 
-namespace {
-const char kNotRun[] = "not run";
-}  // namespace
-
 std::vector<std::string> PointContentHashes(const PreparedSweep& sweep,
                                             const PointEvaluator& evaluator) {
   std::vector<std::string> hashes(sweep.points.size());
@@ -29,11 +25,8 @@ bool CollectStoredResults(RunStore& store, const std::vector<std::string>& hashe
   std::map<size_t, PointResult> loaded;
   std::vector<StoredPointKey> keys;
   if (!store.LoadResults(&loaded, error) || !store.ListPoints(&keys, error)) return false;
-  results->assign(hashes.size(), PointResult{});
-  for (size_t i = 0; i < results->size(); ++i) {
-    (*results)[i].index = i;
-    (*results)[i].reason = kNotRun;
-  }
+  results->clear();
+  for (size_t i = 0; i < hashes.size(); ++i) results->push_back(NotRunResult(i));
   // Prefer the row at the point's own index, then any row with its hash.
   std::map<std::string, size_t> by_hash;
   for (const auto& key : keys) by_hash.emplace(key.content_hash, key.index);
@@ -89,7 +82,7 @@ ResultCounts CountResults(const std::vector<PointResult>& results) {
       ++c.ok;
     } else if (r.status == PointStatus::kUnsettled) {
       ++c.unsettled;
-    } else if (r.reason == kNotRun) {
+    } else if (r.status == PointStatus::kNotRun) {
       ++c.not_run;
     } else {
       ++c.failed;

@@ -25,7 +25,7 @@ bool RekeyStoredResults(RunStore& store, const std::vector<Point>& points,
                         const std::vector<std::string>& hashes, std::string* error);
 
 /// Every point's stored result whose content hash matches `hashes` (at any
-/// stored index); a point without one is status kFailed with reason "not run".
+/// stored index); a point without one is NotRunResult (status kNotRun).
 bool CollectStoredResults(RunStore& store, const std::vector<std::string>& hashes,
                           std::vector<PointResult>* results, std::string* error);
 

@@ -24,7 +24,10 @@ constexpr const char* kSchema =
     " PRIMARY KEY(point, ord));"
     "CREATE TABLE IF NOT EXISTS metrics(point INTEGER NOT NULL, edge INTEGER NOT NULL,"
     " ord INTEGER NOT NULL, column_name TEXT NOT NULL, value,"
-    " PRIMARY KEY(point, edge, ord));";
+    " PRIMARY KEY(point, edge, ord));"
+    "CREATE TABLE IF NOT EXISTS comparisons(point INTEGER NOT NULL, edge INTEGER NOT NULL,"
+    " ord INTEGER NOT NULL, metric TEXT NOT NULL, tag TEXT NOT NULL, predicted, difference,"
+    " relative_difference, beyond_tolerance, PRIMARY KEY(point, edge, ord));";
 
 // A prepared statement that finalizes itself.
 class Statement {
@@ -66,10 +69,45 @@ class Statement {
   sqlite3_stmt* stmt_ = nullptr;
 };
 
+// A stored status; text no version wrote reads as failed.
 PointStatus StatusFromName(const std::string& name) {
-  if (name == "ok") return PointStatus::kOk;
-  if (name == "unsettled") return PointStatus::kUnsettled;
-  return PointStatus::kFailed;
+  PointStatus s = PointStatus::kFailed;
+  PointStatusFromName(name, &s);
+  return s;
+}
+
+SettleMethod MethodFromName(const std::string& name) {
+  SettleMethod m = SettleMethod::kNotAttempted;
+  SettleMethodFromName(name, &m);
+  return m;
+}
+
+// One row of the comparisons table; beyond_tolerance 1/0, NULL when empty.
+bool InsertComparison(Statement& q, long long idx, size_t edge, size_t ord, const Comparison& c) {
+  q.Reset();
+  q.Int(1, idx);
+  q.Int(2, static_cast<long long>(edge));
+  q.Int(3, static_cast<long long>(ord));
+  q.Text(4, c.metric);
+  q.Text(5, c.tag);
+  q.Double(6, c.predicted);
+  q.Double(7, c.difference);
+  q.Double(8, c.relative_difference);
+  q.Double(9, c.beyond_tolerance ? (*c.beyond_tolerance ? 1.0 : 0.0) : NAN);
+  return q.Step() == SQLITE_DONE;
+}
+
+// Columns: metric, tag, predicted, difference, relative_difference, beyond_tolerance from `first`.
+Comparison ReadComparison(Statement& q, int first) {
+  Comparison c;
+  c.metric = q.ColText(first);
+  c.tag = q.ColText(first + 1);
+  c.predicted = q.ColDouble(first + 2);
+  c.difference = q.ColDouble(first + 3);
+  c.relative_difference = q.ColDouble(first + 4);
+  double beyond = q.ColDouble(first + 5);
+  if (!std::isnan(beyond)) c.beyond_tolerance = beyond > 0.5;
+  return c;
 }
 
 ZvsClass ZvsFromName(const std::string& name) {
@@ -81,7 +119,7 @@ ZvsClass ZvsFromName(const std::string& name) {
 
 // "name=value name=value", values with 17 significant digits (exact for
 // binary64: IEEE 754-2008, 5.12.2).
-std::string PairsText(const std::vector<std::pair<std::string, double>>& pairs) {
+std::string PairsText(const std::vector<SettledState>& pairs) {
   std::string text;
   char buf[48];
   for (const auto& [name, value] : pairs) {
@@ -92,8 +130,8 @@ std::string PairsText(const std::vector<std::pair<std::string, double>>& pairs) 
   return text;
 }
 
-std::vector<std::pair<std::string, double>> ParsePairs(const std::string& text) {
-  std::vector<std::pair<std::string, double>> pairs;
+std::vector<SettledState> ParsePairs(const std::string& text) {
+  std::vector<SettledState> pairs;
   size_t pos = 0;
   while (pos < text.size()) {
     size_t end = text.find(' ', pos);
@@ -101,7 +139,7 @@ std::vector<std::pair<std::string, double>> ParsePairs(const std::string& text) 
     std::string item = text.substr(pos, end - pos);
     size_t eq = item.rfind('=');
     if (eq != std::string::npos) {
-      pairs.emplace_back(item.substr(0, eq), std::strtod(item.c_str() + eq + 1, nullptr));
+      pairs.push_back({item.substr(0, eq), std::strtod(item.c_str() + eq + 1, nullptr)});
     }
     pos = end + 1;
   }
@@ -109,8 +147,8 @@ std::vector<std::pair<std::string, double>> ParsePairs(const std::string& text) 
 }
 
 std::string ParamsText(const Point& point) {
-  std::vector<std::pair<std::string, double>> pairs;
-  for (const auto& v : point.values) pairs.emplace_back(v.name, v.value);
+  std::vector<SettledState> pairs;
+  for (const auto& v : point.values) pairs.push_back({v.name, v.value});
   return PairsText(pairs);
 }
 
@@ -227,9 +265,12 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
   {
     Statement del_m(db_, "DELETE FROM metrics WHERE point = ?");
     Statement del_e(db_, "DELETE FROM edges WHERE point = ?");
+    Statement del_c(db_, "DELETE FROM comparisons WHERE point = ?");
     del_m.Int(1, idx);
     del_e.Int(1, idx);
-    if (!del_m.ok() || !del_e.ok() || del_m.Step() != SQLITE_DONE || del_e.Step() != SQLITE_DONE) {
+    del_c.Int(1, idx);
+    if (!del_m.ok() || !del_e.ok() || !del_c.ok() || del_m.Step() != SQLITE_DONE ||
+        del_e.Step() != SQLITE_DONE || del_c.Step() != SQLITE_DONE) {
       return fail("delete");
     }
     Statement ins(
@@ -243,7 +284,7 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
     ins.Text(3, content_hash);
     ins.Text(4, PointStatusName(r.status));
     ins.Text(5, r.reason);
-    ins.Text(6, r.settle.method);
+    ins.Text(6, SettleMethodName(r.settle.method));
     ins.Int(7, r.settle.iterations);
     ins.Int(8, r.settle.periods);
     ins.Double(9, r.settle.residual);
@@ -256,7 +297,11 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
                    "INSERT INTO edges(point, ord, cell, edge, zvs, criterion) VALUES(?,?,?,?,?,?)");
     Statement metric(db_,
                      "INSERT INTO metrics(point, edge, ord, column_name, value) VALUES(?,?,?,?,?)");
-    if (!edge.ok() || !metric.ok()) return fail("prepare");
+    Statement comparison(db_,
+                         "INSERT INTO comparisons(point, edge, ord, metric, tag, predicted,"
+                         " difference, relative_difference, beyond_tolerance)"
+                         " VALUES(?,?,?,?,?,?,?,?,?)");
+    if (!edge.ok() || !metric.ok() || !comparison.ok()) return fail("prepare");
     for (size_t e = 0; e < r.edges.size(); ++e) {
       const EdgeMeasurement& m = r.edges[e];
       edge.Reset();
@@ -275,6 +320,11 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
         metric.Text(4, m.metrics[k].column);
         metric.Double(5, m.metrics[k].value);
         if (metric.Step() != SQLITE_DONE) return fail("insert metric");
+      }
+      for (size_t k = 0; k < m.comparisons.size(); ++k) {
+        if (!InsertComparison(comparison, idx, e, k, m.comparisons[k])) {
+          return fail("insert comparison");
+        }
       }
     }
   }
@@ -297,14 +347,18 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
   Statement edges(db_, "SELECT point, cell, edge, zvs, criterion FROM edges ORDER BY point, ord");
   Statement metrics(
       db_, "SELECT point, edge, column_name, value FROM metrics ORDER BY point, edge, ord");
-  if (!points.ok() || !edges.ok() || !metrics.ok()) return fail();
+  Statement comparisons(db_,
+                        "SELECT point, edge, metric, tag, predicted, difference,"
+                        " relative_difference, beyond_tolerance FROM comparisons"
+                        " ORDER BY point, edge, ord");
+  if (!points.ok() || !edges.ok() || !metrics.ok() || !comparisons.ok()) return fail();
   int rc;
   while ((rc = points.Step()) == SQLITE_ROW) {
     PointResult r;
     r.index = static_cast<size_t>(points.ColInt(0));
     r.status = StatusFromName(points.ColText(1));
     r.reason = points.ColText(2);
-    r.settle.method = points.ColText(3);
+    r.settle.method = MethodFromName(points.ColText(3));
     r.settle.iterations = static_cast<int>(points.ColInt(4));
     r.settle.periods = static_cast<int>(points.ColInt(5));
     r.settle.residual = points.ColDouble(6);
@@ -330,6 +384,13 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
     size_t e = static_cast<size_t>(metrics.ColInt(1));
     if (it == out->end() || e >= it->second.edges.size()) continue;
     it->second.edges[e].metrics.push_back({metrics.ColText(2), metrics.ColDouble(3)});
+  }
+  if (rc != SQLITE_DONE) return fail();
+  while ((rc = comparisons.Step()) == SQLITE_ROW) {
+    auto it = out->find(static_cast<size_t>(comparisons.ColInt(0)));
+    size_t e = static_cast<size_t>(comparisons.ColInt(1));
+    if (it == out->end() || e >= it->second.edges.size()) continue;
+    it->second.edges[e].comparisons.push_back(ReadComparison(comparisons, 2));
   }
   if (rc != SQLITE_DONE) return fail();
   return true;

@@ -26,7 +26,9 @@ struct StoredPointKey {
 /// Tables: meta(key, value); points(idx, params, content_hash, status,
 /// reason, settle_method, settle_iterations, settle_periods, settle_residual,
 /// settle_state ("name=value ..."), wall_s, log); edges(point, ord, cell, edge,
-/// zvs, criterion); metrics(point, edge, ord, column_name, value). A field
+/// zvs, criterion); metrics(point, edge, ord, column_name, value);
+/// comparisons(point, edge, ord, metric, tag, predicted, difference,
+/// relative_difference, beyond_tolerance 1/0/NULL). A field
 /// added to PointResult goes into SavePoint and LoadResults (and the codec). Doubles are stored in
 /// untyped columns so they come back bit for bit (-0.0 too); NaN is stored as NULL and read back as
 /// NaN. Not safe to share across fork(): workers never touch it.

@@ -126,7 +126,7 @@ Balance BalanceAt(const std::vector<ParamValue>& values, std::string* log) {
                 "settled by %s in %d periods; per period: in %.4f uJ, out %.4f uJ, channels %.4f uJ, "
                 "diodes %.4f uJ, stored change %.5f uJ (capacitances %.5f uJ); residual %.5f uJ "
                 "= %.4f %% of in, %.3f %% of the losses\n",
-                r.settle.method.c_str(), r.settle.periods, b.in * 1e6, b.out * 1e6,
+                SettleMethodName(r.settle.method), r.settle.periods, b.in * 1e6, b.out * 1e6,
                 b.channel * 1e6, b.diode * 1e6, b.stored * 1e6, e_cap * 1e6, b.residual * 1e6,
                 100 * b.residual / b.in, 100 * b.residual / (b.channel + b.diode));
   *log += line;

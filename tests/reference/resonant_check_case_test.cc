@@ -55,7 +55,7 @@ TEST(ResonantCheckCaseTest, RippleValleyAndPeakCurrents) {
   Waveforms waves;
   PointResult r = RunCase(5, &waves);
   ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
-  EXPECT_EQ(r.settle.method, "shooting");
+  EXPECT_EQ(r.settle.method, SettleMethod::kShooting);
   // Over the last period. Erickson & Maksimovic (2001) ch. 2; REFERENCES.md
   // sec. 8: dI 18 A, Iv -4 A, Ipk 14 A.
   const auto& t = waves.time();

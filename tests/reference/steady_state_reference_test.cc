@@ -50,7 +50,7 @@ TEST(SteadyStateReferenceTest, ShootingEqualsAThousandPeriodRun) {
   Waveforms settled;
   PointResult r = evaluator.Evaluate(Point{0, values}, SharedNgspice(), &settled);
   ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
-  EXPECT_EQ(r.settle.method, "shooting");
+  EXPECT_EQ(r.settle.method, SettleMethod::kShooting);
   EXPECT_LE(r.settle.periods, 20);
   double v_on = 0;
   for (const auto& e : r.edges)

@@ -19,7 +19,7 @@ PointResult Sample() {
   r.reason = "";
   r.log = std::string("binary\0log\n", 11);
   r.settle = {
-      "periods", 0, 62, std::numeric_limits<double>::quiet_NaN(), {{"il0", -4.25}, {"vc0", 11.9}}};
+      SettleMethod::kPeriods, 0, 62, std::numeric_limits<double>::quiet_NaN(), {{"il0", -4.25}, {"vc0", 11.9}}};
   r.wall_s = 0.1;
   r.edges.push_back({"leg",
                      "high_on",
@@ -27,6 +27,9 @@ PointResult Sample() {
                      "v_turn_on <= 10% of rail",
                      {{"rail_v", 47.999999999999993}, {"z", -0.0}, {"inf", -HUGE_VAL}}});
   r.edges.push_back({"leg", "low_on", ZvsClass::kFull, "", {}});
+  Comparison paired{"t_transition_s", "pred", 2.5e-9, -0.0, NAN, true};
+  Comparison unpaired{"", "my_guess", 1.0 / 3.0, NAN, NAN, std::nullopt};
+  r.edges[0].comparisons = {paired, unpaired};
   return r;
 }
 
@@ -50,6 +53,16 @@ TEST(ResultCodecTest, EveryFieldRoundTripsBitForBit) {
   for (size_t k = 0; k < 3; ++k) {
     EXPECT_EQ(out.edges[0].metrics[k].column, in.edges[0].metrics[k].column);
     EXPECT_TRUE(SameBits(out.edges[0].metrics[k].value, in.edges[0].metrics[k].value));
+  }
+  ASSERT_EQ(out.edges[0].comparisons.size(), 2u);
+  for (size_t k = 0; k < 2; ++k) {
+    const Comparison &a = out.edges[0].comparisons[k], &b = in.edges[0].comparisons[k];
+    EXPECT_EQ(a.metric, b.metric);
+    EXPECT_EQ(a.tag, b.tag);
+    EXPECT_TRUE(SameBits(a.predicted, b.predicted));
+    EXPECT_TRUE(SameBits(a.difference, b.difference));
+    EXPECT_EQ(std::isnan(a.relative_difference), std::isnan(b.relative_difference));
+    EXPECT_EQ(a.beyond_tolerance, b.beyond_tolerance);
   }
   EXPECT_EQ(out.edges[1].edge, "low_on");
 }

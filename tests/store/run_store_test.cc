@@ -36,7 +36,7 @@ PointResult FullResult() {
   r.reason = "residual 3e-3 above 1e-3, \"quoted\", comma";
   r.log = "stdout line one\nstderr Error: something\n";
   r.settle = {
-      "shooting", 4, 17, 0.1 + 0.2, {{"il0", -4.0000000000000009}, {"vc0", -0.0}, {"x", 1e-300}}};
+      SettleMethod::kShooting, 4, 17, 0.1 + 0.2, {{"il0", -4.0000000000000009}, {"vc0", -0.0}, {"x", 1e-300}}};
   r.wall_s = 1.0 / 3.0;
   EdgeMeasurement e1{"leg", "high_on", ZvsClass::kPartial, "v_turn_on <= 4.8 V", {}};
   e1.metrics = {{"rail_v", 48.000000000000007},
@@ -45,6 +45,9 @@ PointResult FullResult() {
                 {"neg_zero", -0.0},
                 {"huge", std::numeric_limits<double>::infinity()},
                 {"tiny", 4.9406564584124654e-324}};
+  e1.comparisons = {{"i_commutated_a", "pred", -4.25, 0.25, 0.25 / 4.25, false},
+                    {"t_transition_s", "pred_energy", NAN, NAN, NAN, std::nullopt},
+                    {"", "my_guess", -0.0, NAN, NAN, std::nullopt}};
   EdgeMeasurement e2{"leg", "low_on", ZvsClass::kFull, "x", {{"rail_v", 47.9}}};
   EdgeMeasurement e3{"aux", "low_on", ZvsClass::kUnknown, "", {}};
   r.edges = {e1, e2, e3};
@@ -64,8 +67,8 @@ void ExpectSame(const PointResult& a, const PointResult& b) {
   EXPECT_TRUE(SameBits(a.wall_s, b.wall_s));
   ASSERT_EQ(a.settle.initial_state.size(), b.settle.initial_state.size());
   for (size_t i = 0; i < a.settle.initial_state.size(); ++i) {
-    EXPECT_EQ(a.settle.initial_state[i].first, b.settle.initial_state[i].first);
-    EXPECT_TRUE(SameBits(a.settle.initial_state[i].second, b.settle.initial_state[i].second));
+    EXPECT_EQ(a.settle.initial_state[i].init_param, b.settle.initial_state[i].init_param);
+    EXPECT_TRUE(SameBits(a.settle.initial_state[i].value, b.settle.initial_state[i].value));
   }
   ASSERT_EQ(a.edges.size(), b.edges.size());
   for (size_t e = 0; e < a.edges.size(); ++e) {
@@ -81,6 +84,18 @@ void ExpectSame(const PointResult& a, const PointResult& b) {
       // Exact bits, NaN only as NaN (IEEE 754: NaN payloads are not kept).
       EXPECT_TRUE(SameBits(x.value, y.value) || (std::isnan(x.value) && std::isnan(y.value)))
           << x.column << ": " << x.value << " vs " << y.value;
+    }
+    ASSERT_EQ(a.edges[e].comparisons.size(), b.edges[e].comparisons.size());
+    for (size_t k = 0; k < a.edges[e].comparisons.size(); ++k) {
+      const Comparison& x = a.edges[e].comparisons[k];
+      const Comparison& y = b.edges[e].comparisons[k];
+      EXPECT_EQ(x.metric, y.metric);
+      EXPECT_EQ(x.tag, y.tag);
+      for (auto [u, v] : {std::pair{x.predicted, y.predicted}, {x.difference, y.difference},
+                          {x.relative_difference, y.relative_difference}}) {
+        EXPECT_TRUE(SameBits(u, v) || (std::isnan(u) && std::isnan(v))) << x.Name();
+      }
+      EXPECT_EQ(x.beyond_tolerance, y.beyond_tolerance) << x.Name();
     }
   }
 }

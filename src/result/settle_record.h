@@ -1,0 +1,44 @@
+// How a point reached (or did not reach) periodic steady state.
+#pragma once
+
+#include <limits>
+#include <string>
+#include <utility>
+#include <vector>
+
+namespace zvsmap {
+
+/// The way the settled state was found. kNotAttempted: the point failed
+/// before settling; kNone: the template has no slow state, every period is
+/// already periodic; kShooting: Newton shooting on the slow states;
+/// kPeriods: period-by-period simulation until the residual is small.
+enum class SettleMethod { kNotAttempted, kNone, kShooting, kPeriods };
+
+/// "", "none", "shooting", "periods": the one place a method becomes text.
+const char* SettleMethodName(SettleMethod m);
+
+/// The inverse of SettleMethodName. Returns false (and leaves `out` alone)
+/// for any other text.
+bool SettleMethodFromName(const std::string& name, SettleMethod* out);
+
+/// One slow state at the start of the settled period: the template's
+/// `*@ state` init parameter and its value.
+struct SettledState {
+  std::string init_param;
+  double value = 0;
+  bool operator==(const SettledState& o) const {
+    return init_param == o.init_param && value == o.value;
+  }
+};
+
+/// How a point was settled, as stored and reported.
+struct SettleRecord {
+  SettleMethod method = SettleMethod::kNotAttempted;
+  int iterations = 0;  ///< Newton iterations (shooting) or 0
+  int periods = 0;     ///< switching periods simulated in all
+  double residual = std::numeric_limits<double>::quiet_NaN();  ///< final relative residual
+  /// The settled start-of-period state, in template order.
+  std::vector<SettledState> initial_state;
+};
+
+}  // namespace zvsmap
