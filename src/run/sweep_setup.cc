@@ -1,6 +1,7 @@
 #include "run/sweep_setup.h"
 
 #include "handcalc/hand_calculation.h"
+#include "run/sweep_checks.h"
 #include "sweep/sweep_expand.h"
 #include "sweep/sweep_parser.h"
 
@@ -35,7 +36,7 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     errors->insert(errors->end(), predictions.begin(), predictions.end());
     return false;
   }
-  return true;
+  return CheckSweepUpFront(out, errors);
 }
 
 }  // namespace zvsmap
