@@ -34,6 +34,7 @@ void AddExplainCommand(CLI::App& app, int* exit_code) {
       *exit_code = kExitBadInput;
       return;
     }
+    PrintWarnings(sweep.warnings);
     if (opts->point >= sweep.points.size()) {
       std::fprintf(stderr, "zvsmap: error: %s has %zu points (0 to %zu); no point %zu\n",
                    opts->sweep.c_str(), sweep.points.size(), sweep.points.size() - 1, opts->point);

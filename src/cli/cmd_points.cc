@@ -11,6 +11,10 @@ void PrintErrors(const std::vector<Diagnostic>& errors) {
   for (const auto& e : errors) std::fprintf(stderr, "zvsmap: error: %s\n", e.Format().c_str());
 }
 
+void PrintWarnings(const std::vector<Diagnostic>& warnings) {
+  for (const auto& w : warnings) std::fprintf(stderr, "zvsmap: warning: %s\n", w.Format().c_str());
+}
+
 void AddPointsCommand(CLI::App& app, int* exit_code) {
   struct Options {
     std::string sweep;
@@ -28,6 +32,7 @@ void AddPointsCommand(CLI::App& app, int* exit_code) {
       *exit_code = kExitBadInput;
       return;
     }
+    PrintWarnings(sweep.warnings);
     for (const auto& p : sweep.points) {
       if (std::ferror(stdout)) break;  // the reader went away (EPIPE): stop printing
       std::printf("%zu  %s\n", p.index, p.Describe().c_str());

@@ -29,6 +29,7 @@ void AddRenderCommand(CLI::App& app, int* exit_code) {
       *exit_code = kExitBadInput;
       return;
     }
+    PrintWarnings(sweep.warnings);
     if (opts->point >= sweep.points.size()) {
       std::fprintf(stderr, "zvsmap: error: point %zu does not exist (the sweep has %zu points)\n",
                    opts->point, sweep.points.size());

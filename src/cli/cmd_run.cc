@@ -113,6 +113,7 @@ int Run(const Options& opts) {
     PrintErrors(errors);
     return kExitBadInput;
   }
+  PrintWarnings(sweep.warnings);
   for (size_t i : wave_request.indices) {
     if (i >= sweep.points.size()) {
       std::fprintf(stderr, "zvsmap: error: --waveforms: the sweep has points 0 to %zu, not %zu\n",

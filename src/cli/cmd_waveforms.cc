@@ -141,6 +141,7 @@ int Waveforms(const Options& opts) {
     PrintErrors(errors);
     return kExitBadInput;
   }
+  PrintWarnings(sweep.warnings);
   if (opts.points.empty() && !opts.worst) {
     std::fprintf(stderr, "zvsmap: error: choose points with --point N and/or --worst\n");
     return kExitBadInput;

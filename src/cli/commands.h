@@ -28,5 +28,7 @@ void AddCharacterizeCommand(CLI::App& app, int* exit_code);
 
 /// Prints diagnostics as "zvsmap: error: ..." on stderr.
 void PrintErrors(const std::vector<zvsmap::Diagnostic>& errors);
+/// Prints diagnostics as "zvsmap: warning: ..." on stderr.
+void PrintWarnings(const std::vector<zvsmap::Diagnostic>& warnings);
 
 }  // namespace zvsmap::cli

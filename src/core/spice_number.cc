@@ -91,6 +91,89 @@ std::optional<double> ParseSpiceNumber(const std::string& raw) {
   return value;
 }
 
+namespace {
+
+// The unit symbols a number may carry after its scale factor (compared
+// case-insensitively): the ones a power stage's parameters use.
+bool IsUnitSymbol(const std::string& lower) {
+  static const char* const kUnits[] = {"v", "a", "h", "f", "hz", "s", "ohm", "w", "j"};
+  for (const char* u : kUnits) {
+    if (lower == u) return true;
+  }
+  return false;
+}
+
+NumberSpelling Refuse(std::string message) {
+  NumberSpelling s;
+  s.kind = NumberSpelling::Kind::kRefused;
+  s.message = std::move(message);
+  return s;
+}
+
+}  // namespace
+
+NumberSpelling JudgeSpiceSpelling(const std::string& raw) {
+  std::string text = Trim(raw);
+  const char* start = text.c_str();
+  char* end = nullptr;
+  std::strtod(start, &end);
+  if (end == start) return {};
+  std::string head(start, static_cast<const char*>(end));
+  std::string rest(end);
+  std::string lower = Lower(rest);
+  // Not a number ParseSpiceNumber would take: it says so itself.
+  if (Lower(head).find_first_of("xinp") != std::string::npos) return {};
+  if (rest.empty() || lower[0] == 'e') return {};
+  for (char c : rest) {
+    if (!std::isalpha(static_cast<unsigned char>(c))) return {};
+  }
+  if (!ParseSpiceNumber(head)) return {};
+  const std::string quoted = "'" + text + "'";
+  if (lower.compare(0, 3, "mil") == 0) {
+    double mils = std::strtod(head.c_str(), nullptr);
+    return Refuse(quoted + " is " + head + " mil (" + FormatEngineering(mils * 25.4e-6) +
+                  ") in ngspice's device lines but " + head +
+                  " milli in its .param expressions; write '" + FormatEngineering(mils * 25.4e-6) +
+                  "'");
+  }
+  std::optional<double> value = ParseSpiceNumber(text);
+  if (!value) return {};
+  const std::string reading = FormatNumber(*value);
+  size_t scale = lower.compare(0, 3, "meg") == 0                                ? 3
+                 : std::string("tgkmunpfa").find(lower[0]) != std::string::npos ? 1
+                                                                                : 0;
+  if (scale == 1 && rest[0] == 'M') {
+    return Refuse(quoted + " is " + head + " milli (" + reading +
+                  ") in SPICE, which reads 'M' as milli; write '" + head + "meg' for mega or '" +
+                  head + "m' for milli");
+  }
+  if (scale == 1 && lower[0] == 'a') {
+    double atto = std::strtod((head + "e-18").c_str(), nullptr);
+    return Refuse(quoted + " is " + head + " atto (" + FormatNumber(atto) +
+                  ") in SPICE, which reads '" + rest.substr(0, 1) + "' as atto; write '" + head +
+                  "' for " + head + " amperes, or '" + FormatNumber(atto) + "' for atto");
+  }
+  if (scale == 1 && rest[0] == 'F') {
+    return Refuse(quoted + " is " + head + " femto (" + reading +
+                  ") in SPICE, which reads 'F' as femto; write '" + head + "' for " + head +
+                  " farad, or '" + head + "f' for femto");
+  }
+  std::string number = head + rest.substr(0, scale);
+  std::string unit = rest.substr(scale);
+  if (unit.empty()) return {};
+  if (!IsUnitSymbol(Lower(unit))) {
+    return Refuse("SPICE ignores the letters '" + unit + "' in " + quoted + " and reads " +
+                  reading + "; write '" + number +
+                  "' (after a number and its scale factor zvsmap takes only the unit symbols V, "
+                  "A, H, F, Hz, s, Ohm, W, J)");
+  }
+  std::string as = scale > 0 ? number + " (" + reading + ")" : number;
+  return {NumberSpelling::Kind::kUnitNote,
+          quoted + " is read as " + as + ": SPICE ignores the unit letters '" + unit +
+              "', and zvsmap does not check them against the parameter",
+          number};
+}
+
 std::string FormatNumber(double value) {
   // The shortest of 12, 15 and 17 significant digits that reads back exactly,
   // so rendered netlists keep full precision (a period that is not a round

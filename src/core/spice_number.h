@@ -13,6 +13,27 @@ namespace zvsmap {
 /// trailing non-letters, non-finite).
 std::optional<double> ParseSpiceNumber(const std::string& text);
 
+/// How a number's spelling compares with ngspice's reading of it (README "How
+/// numbers are read"). ngspice reads a number, then a scale factor chosen by
+/// the first letters (t g meg k m u n p f a, any case; "m" alone is milli and
+/// "a" is atto), and ignores every letter after that.
+struct NumberSpelling {
+  enum class Kind {
+    kPlain,     ///< a number with at most a scale factor: nothing to say
+    kUnitNote,  ///< a scale factor and then a unit symbol ngspice ignores ("10uH", "5V"): a warning
+    kRefused,   ///< reads differently than it looks ("0.5MHz", "2A", "1xyz"): an error
+  };
+  Kind kind = Kind::kPlain;
+  /// kUnitNote and kRefused: what ngspice reads and, when refused, what to write.
+  std::string message;
+  /// kUnitNote: the number without its unit letters ("10u" for "10uH").
+  std::string plain;
+};
+
+/// Judges the spelling of `text`. A text that is not a number at all is
+/// kPlain here (ParseSpiceNumber refuses it).
+NumberSpelling JudgeSpiceSpelling(const std::string& text);
+
 /// Formats a value compactly: the shortest of %.12g, %.15g, %.17g that reads back exactly.
 std::string FormatNumber(double value);
 

@@ -14,6 +14,11 @@ enum class ZvsClass { kFull, kPartial, kHard, kUnknown };
 /// "full", "partial", "hard", "unknown".
 const char* ZvsClassName(ZvsClass c);
 
+/// The metric columns MeasureEdge gives every edge, in output order (defined
+/// in commutation.h). The up-front checks of <require metric=...> and
+/// <predict compare=...> use this list; a unit test holds MeasureEdge to it.
+const std::vector<std::string>& EdgeMetricNames();
+
 /// One named measurement; the name is the CSV column and carries its unit
 /// (e.g. "t_transition_s"). NaN means "not reached / not applicable".
 struct Metric {
@@ -24,10 +29,11 @@ struct Metric {
 /// The measurements of one commutation edge (a turn-off command of one switch
 /// followed by the turn-on command of the other).
 struct EdgeMeasurement {
-  std::string cell;   ///< cell name from the template
-  std::string edge;   ///< "high_on" (node rises) or "low_on" (node falls)
+  std::string cell;  ///< cell name from the template
+  std::string edge;  ///< "high_on" (node rises) or "low_on" (node falls)
   ZvsClass zvs = ZvsClass::kUnknown;
-  std::string criterion;  ///< the ZVS criterion the class was judged by, e.g. "v_turn_on <= 10% of rail"
+  std::string
+      criterion;  ///< the ZVS criterion the class was judged by, e.g. "v_turn_on <= 10% of rail"
   std::vector<Metric> metrics;  ///< in a fixed order (see commutation.h)
   /// The hand calculation beside the metrics (src/handcalc), in prediction order.
   std::vector<Comparison> comparisons = {};

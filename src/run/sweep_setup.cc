@@ -3,6 +3,7 @@
 #include "handcalc/hand_calculation.h"
 #include "netlist/deck_names.h"
 #include "netlist/deck_rules.h"
+#include "run/sweep_checks.h"
 #include "sweep/sweep_expand.h"
 #include "sweep/sweep_parser.h"
 
@@ -43,7 +44,7 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     errors->insert(errors->end(), predictions.begin(), predictions.end());
     return false;
   }
-  return true;
+  return CheckSweepUpFront(out, errors);
 }
 
 }  // namespace zvsmap

@@ -18,6 +18,7 @@ struct PreparedSweep {
   Template tmpl;
   std::vector<Point> points;
   std::vector<ResolvedDevice> devices;  ///< the sweep's <device> models, checked
+  std::vector<Diagnostic> warnings;     ///< not fatal (run/sweep_checks.h); printed before a run
 };
 
 /// Parses the sweep file, loads its template, checks every parameter name

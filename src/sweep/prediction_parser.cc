@@ -71,6 +71,11 @@ bool ParsePrediction(pugi::xml_node node, const SourceLocation& where,
     if (!v || *v < 0) {
       return fail("tolerance", "bad tolerance '" + raw + "' (e.g. '5%' or an absolute '0.5n')");
     }
+    if (percent && *v > 100) {
+      return fail("tolerance", "tolerance '" + raw +
+                                   "' is above 100% (it would accept any prediction of the "
+                                   "right sign)");
+    }
     out->tolerance_rel = percent ? *v / 100 : 0;
     out->tolerance_abs = percent ? 0 : *v;
   }

@@ -86,10 +86,9 @@ class Parser {
     }
     return Where(node);
   }
-  bool Fail(SourceLocation where, std::string message) {
-    error_->where = where;
-    error_->message = std::move(message);
-    error_->source_line.clear();
+  // A diagnostic at `where` with the line's text and a caret.
+  Diagnostic Make(SourceLocation where, std::string message) const {
+    Diagnostic d(where, std::move(message));
     if (where.line > 0) {
       size_t b = line_starts_[where.line - 1];
       size_t e = text_.find('\n', b);
@@ -97,13 +96,17 @@ class Parser {
       if (!line.empty() && line.back() == '\r') line.pop_back();
       // Show the line without its indentation; keep the caret on the same character.
       size_t indent = std::min(line.find_first_not_of(" \t"), line.size());
-      error_->source_line = line.substr(indent);
-      if (error_->where.column > static_cast<int>(indent)) {
-        error_->where.column -= static_cast<int>(indent);
+      d.source_line = line.substr(indent);
+      if (d.where.column > static_cast<int>(indent)) {
+        d.where.column -= static_cast<int>(indent);
       } else {
-        error_->where.column = 0;
+        d.where.column = 0;
       }
     }
+    return d;
+  }
+  bool Fail(SourceLocation where, std::string message) {
+    *error_ = Make(where, std::move(message));
     return false;
   }
   // The first non-blank character of a text node.
@@ -124,6 +127,11 @@ class Parser {
   bool Number(pugi::xml_node node, const char* name, double* value);
   bool WholeNumber(pugi::xml_node node, const char* name, long min, long* value);
   bool Positive(pugi::xml_node node, const char* name, double* value);
+  bool Spelling(pugi::xml_node node, const char* name, const std::string& item);
+  bool AtMost(pugi::xml_node node, const char* name, double value, double max,
+              const std::string& why);
+  bool AtLeast(pugi::xml_node node, const char* name, double value, double min,
+               const std::string& why);
   bool ParamName(pugi::xml_node node, std::string* name);
   bool Once(pugi::xml_node node);
 
@@ -180,8 +188,36 @@ bool Parser::Required(pugi::xml_node node, const char* name, std::string* value)
   return true;
 }
 
+// Refuses a number that reads differently than it looks ("0.5MHz", "2A",
+// "1xyz") and notes unit letters SPICE ignores ("10uH"); see core/spice_number.h.
+bool Parser::Spelling(pugi::xml_node node, const char* name, const std::string& item) {
+  NumberSpelling spelling = JudgeSpiceSpelling(item);
+  if (spelling.kind == NumberSpelling::Kind::kPlain) return true;
+  std::string message = "in attribute '" + std::string(name) + "': " + spelling.message;
+  if (spelling.kind == NumberSpelling::Kind::kRefused) return FailAttr(node, name, message);
+  spec_->warnings.push_back(Make(WhereAttr(node, name), message));
+  return true;
+}
+
+bool Parser::AtMost(pugi::xml_node node, const char* name, double value, double max,
+                    const std::string& why) {
+  if (value <= max) return true;
+  return FailAttr(node, name,
+                  std::string("'") + name + "' must be at most " + FormatNumber(max) + ", got '" +
+                      node.attribute(name).value() + "' (" + why + ")");
+}
+
+bool Parser::AtLeast(pugi::xml_node node, const char* name, double value, double min,
+                     const std::string& why) {
+  if (value >= min) return true;
+  return FailAttr(node, name,
+                  std::string("'") + name + "' must be at least " + FormatNumber(min) + ", got '" +
+                      node.attribute(name).value() + "' (" + why + ")");
+}
+
 bool Parser::Number(pugi::xml_node node, const char* name, double* value) {
   std::string raw = node.attribute(name).value();
+  if (!Spelling(node, name, raw)) return false;
   std::optional<double> v = ParseSpiceNumber(raw);
   if (!v) {
     return FailAttr(node, name,
@@ -338,6 +374,7 @@ bool Parser::ParseAxis(pugi::xml_node node, AxisSpec* axis) {
   }
   if (has_values) {
     for (const std::string& item : SplitValueList(node.attribute("values").value())) {
+      if (!Spelling(node, "values", item)) return false;
       std::optional<double> v = ParseSpiceNumber(item);
       if (!v) {
         return FailAttr(node, "values", "bad number '" + item + "' in attribute 'values'");
@@ -436,18 +473,44 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
   }
   SimulationSettings& s = spec_->simulation;
   s.where = Where(node);
+  // The meaningful range of each setting and why (README "Ranges of the settings").
   long n = 0;
   if (node.attribute("settle-periods")) {
-    if (!WholeNumber(node, "settle-periods", 0, &n)) return false;
+    if (!WholeNumber(node, "settle-periods", 1, &n) ||
+        !AtMost(node, "settle-periods", static_cast<double>(n), 100000,
+                "a run of more periods than that is a hang, not a settling run")) {
+      return false;
+    }
     s.settle_periods = static_cast<int>(n);
   }
   if (node.attribute("measure-periods")) {
-    if (!WholeNumber(node, "measure-periods", 1, &n)) return false;
+    if (!WholeNumber(node, "measure-periods", 2, &n) ||
+        !AtMost(node, "measure-periods", static_cast<double>(n), 100,
+                "each edge is taken from its latest complete occurrence; more periods add "
+                "memory, not accuracy")) {
+      return false;
+    }
     s.measure_periods = static_cast<int>(n);
   }
-  if (node.attribute("max-step") && !Positive(node, "max-step", &s.max_step_s)) return false;
-  if (node.attribute("reltol") && !Positive(node, "reltol", &s.reltol)) return false;
-  if (node.attribute("timeout") && !Positive(node, "timeout", &s.timeout_s)) return false;
+  if (node.attribute("max-step") &&
+      (!Positive(node, "max-step", &s.max_step_s) ||
+       !AtMost(node, "max-step", s.max_step_s, 1, "a step bound of seconds resolves no edge"))) {
+    return false;
+  }
+  if (node.attribute("reltol") &&
+      (!Positive(node, "reltol", &s.reltol) ||
+       !AtLeast(node, "reltol", s.reltol, 1e-9, "finer than double precision can solve") ||
+       !AtMost(node, "reltol", s.reltol, 0.1, "coarser than any result worth measuring"))) {
+    return false;
+  }
+  if (node.attribute("timeout") &&
+      (!Positive(node, "timeout", &s.timeout_s) ||
+       !AtLeast(node, "timeout", s.timeout_s, 1, "seconds; no point settles in less") ||
+       !AtMost(node, "timeout", s.timeout_s, 604800,
+               "seconds; more than a week per point is a "
+               "hang"))) {
+    return false;
+  }
   if (node.attribute("settle")) {
     s.settle_method = node.attribute("settle").value();
     if (s.settle_method != "shooting" && s.settle_method != "periods") {
@@ -456,16 +519,34 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
     }
   }
   if (node.attribute("settle-tolerance") &&
-      !Positive(node, "settle-tolerance", &s.settle_tolerance)) {
+      (!Positive(node, "settle-tolerance", &s.settle_tolerance) ||
+       !AtLeast(node, "settle-tolerance", s.settle_tolerance, 1e-9,
+                "finer than double precision can solve") ||
+       !AtMost(node, "settle-tolerance", s.settle_tolerance, 0.1,
+               "relative to each state's ripple: above 10% a drifting state counts as settled"))) {
     return false;
   }
   if (node.attribute("max-newton")) {
-    if (!WholeNumber(node, "max-newton", 0, &n)) return false;
+    if (!WholeNumber(node, "max-newton", 0, &n) ||
+        !AtMost(node, "max-newton", static_cast<double>(n), 100,
+                "Newton converges in a few iterations or not at all")) {
+      return false;
+    }
     s.max_newton = static_cast<int>(n);
   }
   if (node.attribute("max-periods")) {
-    if (!WholeNumber(node, "max-periods", 1, &n)) return false;
+    if (!WholeNumber(node, "max-periods", 1, &n) ||
+        !AtMost(node, "max-periods", static_cast<double>(n), 1000000,
+                "a run of more periods than that is a hang, not a settling run")) {
+      return false;
+    }
     s.max_periods = static_cast<int>(n);
+  }
+  if (s.settle_periods > s.max_periods) {
+    return FailAttr(node, node.attribute("settle-periods") ? "settle-periods" : "max-periods",
+                    "'settle-periods' (" + std::to_string(s.settle_periods) +
+                        ") is more than 'max-periods' (" + std::to_string(s.max_periods) +
+                        "): settling stops after max-periods periods");
   }
   return true;
 }
@@ -476,10 +557,18 @@ bool Parser::ParseZvs(pugi::xml_node node) {
     return false;
   }
   bool percent = raw.back() == '%';
-  std::optional<double> v = ParseSpiceNumber(percent ? raw.substr(0, raw.size() - 1) : raw);
+  std::string number = percent ? raw.substr(0, raw.size() - 1) : raw;
+  if (!Spelling(node, "residual", number)) return false;
+  std::optional<double> v = ParseSpiceNumber(number);
   if (!v) return FailAttr(node, "residual", "bad number '" + raw + "' in attribute 'residual'");
   if (*v <= 0) {
     return FailAttr(node, "residual", "'residual' must be positive, got '" + raw + "'");
+  }
+  // At half the rail or more, an edge above the limit is hard: no edge could be partial.
+  if (percent && *v >= 50) {
+    return FailAttr(node, "residual",
+                    "'residual' must be below 50%, got '" + raw +
+                        "' (an edge above half the rail is hard, so no edge could be partial)");
   }
   spec_->zvs.kind = percent ? ZvsCriterion::Kind::kFraction : ZvsCriterion::Kind::kAbsolute;
   spec_->zvs.value = percent ? *v / 100 : *v;
@@ -551,6 +640,11 @@ bool Parser::Run(bool check_template_exists) {
       ok = ParseLimits(node);
     } else if (name == "require") {
       RequirementSpec r;
+      for (const char* bound : {"min", "max"}) {
+        if (node.attribute(bound) && !Spelling(node, bound, node.attribute(bound).value())) {
+          return false;
+        }
+      }
       auto fail = [&](const char* attribute, const std::string& message) {
         return attribute ? FailAttr(node, attribute, message) : Fail(node, message);
       };
@@ -568,6 +662,9 @@ bool Parser::Run(bool check_template_exists) {
       if (ok) spec_->devices.push_back(std::move(d));
     } else if (name == "predict") {
       PredictionSpec p;
+      std::string tolerance = Trim(node.attribute("tolerance").value());
+      if (!tolerance.empty() && tolerance.back() == '%') tolerance.pop_back();
+      if (!Spelling(node, "tolerance", tolerance)) return false;
       auto fail = [&](const char* attribute, const std::string& message) {
         return attribute ? FailAttr(node, attribute, message) : Fail(node, message);
       };

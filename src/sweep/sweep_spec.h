@@ -15,8 +15,8 @@ namespace zvsmap {
 
 /// One swept parameter and its values, in the order they are visited.
 struct AxisSpec {
-  std::string param;          ///< "" for a device axis
-  std::vector<double> values; ///< a device axis: indices into device_names
+  std::string param;           ///< "" for a device axis
+  std::vector<double> values;  ///< a device axis: indices into device_names
   SourceLocation where;
   /// A device axis (<axis device="leg.high leg.low" values="wbg sj"/>): the
   /// switch roles ("cell.high"/"cell.low", lower-case) it assigns and the
@@ -51,11 +51,12 @@ struct DerivedValue {
 
 /// How each point is simulated.
 struct SimulationSettings {
-  int settle_periods = 60;      ///< periods simulated before the measured one (brute force)
-  int measure_periods = 2;      ///< periods kept at the end; each edge is taken from its latest complete occurrence
-  double max_step_s = 0;        ///< .tran step bound; 0 = derived from period and dead time
-  double reltol = 1e-4;         ///< ngspice RELTOL
-  double timeout_s = 0;         ///< per-point wall-clock limit; 0 = derived
+  int settle_periods = 60;  ///< periods simulated before the measured one (brute force)
+  int measure_periods =
+      2;  ///< periods kept at the end; each edge is taken from its latest complete occurrence
+  double max_step_s = 0;  ///< .tran step bound; 0 = derived from period and dead time
+  double reltol = 1e-4;   ///< ngspice RELTOL
+  double timeout_s = 0;   ///< per-point wall-clock limit; 0 = derived
   /// Settling: "shooting" (Newton on the template's slow states, falling back
   /// to period by period) or "periods" (period by period only, in runs of
   /// settle_periods, stopping when the last 20 period-boundary states lie
@@ -86,15 +87,19 @@ struct SweepSpec {
   std::string template_path;  ///< resolved relative to the sweep file's folder
   SourceLocation template_where;
   std::vector<FixedValue> fixed;
-  std::vector<AxisGroup> groups;    ///< in file order; the first varies slowest
+  std::vector<AxisGroup> groups;  ///< in file order; the first varies slowest
   std::vector<DerivedValue> derived;
   SimulationSettings simulation;
   ZvsCriterion zvs;
   size_t max_points = 10000;  ///< grid size limit (file's <limits max-points>, CLI can override)
-  SourceLocation limits_where;  ///< the <limits> element, else the <sweep> root (for the size error)
+  SourceLocation
+      limits_where;  ///< the <limits> element, else the <sweep> root (for the size error)
   std::vector<RequirementSpec> requirements;  ///< <require> elements, in file order
   std::vector<PredictionSpec> predictions;    ///< <predict> elements, in file order
   std::vector<DeviceSpec> devices;            ///< <device> elements, in file order
+  /// Not fatal, found while reading: numbers with unit letters SPICE ignores
+  /// ("10uH"), each at its attribute with a caret. Printed before a run.
+  std::vector<Diagnostic> warnings;
 
   /// Number of points of the crossed grid (product of group sizes).
   size_t GridSize() const;

@@ -33,12 +33,18 @@ class CommutationTest : public ::testing::Test {
       ch.push_back(ph >= 0.15e-6 && ph < 0.5e-6 ? 1 : 0);
       cl.push_back(ph < 0.1e-6 || ph >= 0.55e-6 ? 1 : 0);
       double v;
-      if (ph < 0.1e-6) v = 0;
-      else if (ph < 0.12e-6) v = 48 * (ph - 0.1e-6) / 20e-9;
-      else if (ph < 0.5e-6) v = 48;
-      else if (ph < 0.54e-6) v = 48 - 0.7 * 48 * (ph - 0.5e-6) / 40e-9;
-      else if (ph < 0.551e-6) v = 48 * 0.3;
-      else v = 0;
+      if (ph < 0.1e-6)
+        v = 0;
+      else if (ph < 0.12e-6)
+        v = 48 * (ph - 0.1e-6) / 20e-9;
+      else if (ph < 0.5e-6)
+        v = 48;
+      else if (ph < 0.54e-6)
+        v = 48 - 0.7 * 48 * (ph - 0.5e-6) / 40e-9;
+      else if (ph < 0.551e-6)
+        v = 48 * 0.3;
+      else
+        v = 0;
       sw.push_back(v);
     }
     waves_.SetTime(t);
@@ -79,6 +85,18 @@ TEST_F(CommutationTest, RisingEdgeIsFullZvsWithTenToNinetyTime) {
   // common practice).
   EXPECT_NEAR(m.Get("t_transition_s"), 16e-9, 0.05e-9);
   EXPECT_NEAR(m.Get("t_dead_s"), 50e-9, 0.2e-9);
+}
+
+// The exported list of metric names is exactly what MeasureEdge gives, in
+// order (the up-front name checks rely on it; README "Metrics" lists them).
+TEST_F(CommutationTest, MetricNamesAreTheExportedList) {
+  auto edges = FindEdges(cell_, waves_, 0.02e-6);
+  for (const EdgeTiming& e : edges) {
+    EdgeMeasurement m = MeasureEdge(cell_, waves_, e, ZvsCriterion());
+    std::vector<std::string> names;
+    for (const Metric& metric : m.metrics) names.push_back(metric.column);
+    EXPECT_EQ(names, EdgeMetricNames());
+  }
 }
 
 TEST_F(CommutationTest, FallingEdgeThatStallsIsPartialWithoutTransitionTime) {

@@ -122,5 +122,96 @@ TEST_F(SpiceNumberTest, FormatEngineeringUsesSpiceFactors) {
   EXPECT_EQ(FormatEngineering(1.23456e3), "1.235k");
 }
 
+// ---- spellings judged against ngspice's reading ----
+// The reading: ngspice source, src/spicelib/parser/inpeval.c (INPevaluate: a
+// number, then the scale factor chosen by the first letter, t g k u n p f a,
+// m = milli unless "meg" or "mil" follows, any case; later letters skipped)
+// and src/frontend/numparam/xpressn.c (parseunit, the same letters for .param
+// expressions, "mil" read as milli there); ngspice User's Manual, section 2.3.3
+// "Naming conventions" ("Letters immediately following a number that are not
+// scale factors are ignored").
+
+std::string Refused(const std::string& text) {
+  NumberSpelling s = JudgeSpiceSpelling(text);
+  EXPECT_EQ(s.kind, NumberSpelling::Kind::kRefused) << text;
+  return s.message;
+}
+
+std::string Noted(const std::string& text) {
+  NumberSpelling s = JudgeSpiceSpelling(text);
+  EXPECT_EQ(s.kind, NumberSpelling::Kind::kUnitNote) << text;
+  return s.message;
+}
+
+TEST(JudgeSpiceSpellingTest, PlainSpellingsSayNothing) {
+  for (const char* text : {"48", "-3.5", "1e-4", "500k", "200K", "1meg", "1Meg", "1MEG", "2.2u",
+                           "10U", "1m", "100p", "1f", "3g", "1t", "  12  "}) {
+    NumberSpelling s = JudgeSpiceSpelling(text);
+    EXPECT_EQ(s.kind, NumberSpelling::Kind::kPlain) << text;
+    EXPECT_EQ(s.message, "") << text;
+  }
+}
+
+TEST(JudgeSpiceSpellingTest, NotANumberIsLeftToTheReader) {
+  // ParseSpiceNumber refuses these itself ("bad number ...").
+  for (const char* text : {"", "abc", "1e", "5u3", "10 k", "inf", "1e999meg"}) {
+    EXPECT_EQ(JudgeSpiceSpelling(text).kind, NumberSpelling::Kind::kPlain) << text;
+  }
+}
+
+TEST(JudgeSpiceSpellingTest, UpperCaseMIsMilliNotMega) {
+  // inpeval.c: 'M' without "EG" is milli, so 0.5MHz is 0.5e-3.
+  EXPECT_EQ(Refused("0.5MHz"),
+            "'0.5MHz' is 0.5 milli (0.0005) in SPICE, which reads 'M' as milli; write "
+            "'0.5meg' for mega or '0.5m' for milli");
+  EXPECT_EQ(Refused("1M"),
+            "'1M' is 1 milli (0.001) in SPICE, which reads 'M' as milli; write '1meg' for mega or "
+            "'1m' for milli");
+}
+
+TEST(JudgeSpiceSpellingTest, AIsAttoNotAmperes) {
+  // inpeval.c and xpressn.c: 'a'/'A' is atto, 1e-18.
+  EXPECT_EQ(Refused("2A"),
+            "'2A' is 2 atto (2e-18) in SPICE, which reads 'A' as atto; write '2' for 2 amperes, "
+            "or '2e-18' for atto");
+  Refused("3a");
+}
+
+TEST(JudgeSpiceSpellingTest, UpperCaseFAloneIsFemtoNotFarad) {
+  EXPECT_EQ(Refused("1F"),
+            "'1F' is 1 femto (1e-15) in SPICE, which reads 'F' as femto; write '1' for 1 farad, "
+            "or '1f' for femto");
+}
+
+TEST(JudgeSpiceSpellingTest, UnknownTrailingLettersAreRefused) {
+  // ngspice manual 2.3.3: such letters are ignored, so "1xyz" is 1.
+  EXPECT_EQ(Refused("1xyz"),
+            "SPICE ignores the letters 'xyz' in '1xyz' and reads 1; write '1' (after a number and "
+            "its scale factor zvsmap takes only the unit symbols V, A, H, F, Hz, s, Ohm, W, J)");
+  EXPECT_EQ(Refused("10uxyz").substr(0, 64),
+            "SPICE ignores the letters 'xyz' in '10uxyz' and reads 1e-05; wri");
+  Refused("10Volts");
+}
+
+TEST(JudgeSpiceSpellingTest, MilIsRefusedWithItsTwoReadings) {
+  // inpeval.c reads "mil" as 25.4e-6; xpressn.c's parseunit reads it as milli.
+  EXPECT_EQ(Refused("10mil"),
+            "'10mil' is 10 mil (254u) in ngspice's device lines but 10 milli in its .param "
+            "expressions; write '254u'");
+}
+
+TEST(JudgeSpiceSpellingTest, UnitSymbolsAfterAScaleFactorAreNoted) {
+  EXPECT_EQ(Noted("10uH"),
+            "'10uH' is read as 10u (1e-05): SPICE ignores the unit letters 'H', and zvsmap does "
+            "not check them against the parameter");
+  EXPECT_EQ(Noted("5V"),
+            "'5V' is read as 5: SPICE ignores the unit letters 'V', and zvsmap does not check them "
+            "against the parameter");
+  for (const char* text :
+       {"100nF", "1fF", "10mA", "1megHz", "1MEGHZ", "1e3Hz", "2us", "1kOhm", "1H", "5W", "3J"}) {
+    Noted(text);
+  }
+}
+
 }  // namespace
 }  // namespace zvsmap

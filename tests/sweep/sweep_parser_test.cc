@@ -394,14 +394,119 @@ TEST_F(SweepParserTest, MissingTemplate) {
 
 TEST_F(SweepParserTest, BadSettings) {
   EXPECT_EQ(Error(Sweep("  <simulation settle-periods=\"2.5\"/>\n")),
-            "3: 'settle-periods' must be a whole number of at least 0, got '2.5'");
+            "3: 'settle-periods' must be a whole number of at least 1, got '2.5'");
   EXPECT_EQ(Error(Sweep("  <simulation measure-periods=\"0\"/>\n")),
-            "3: 'measure-periods' must be a whole number of at least 1, got '0'");
+            "3: 'measure-periods' must be a whole number of at least 2, got '0'");
   EXPECT_EQ(Error(Sweep("  <simulation reltol=\"-1e-3\"/>\n")),
             "3: 'reltol' must be positive, got '-1e-3'");
   EXPECT_EQ(Error(Sweep("  <zvs residual=\"0%\"/>\n")), "3: 'residual' must be positive, got '0%'");
   EXPECT_EQ(Error(Sweep("  <limits max-points=\"0\"/>\n")),
             "3: 'max-points' must be a whole number of at least 1, got '0'");
+}
+
+// The ranges README "Ranges of the settings" gives each setting (common
+// practice, no source; the measured-period minimum is README's own rule).
+TEST_F(SweepParserTest, SettingsOutsideTheirRange) {
+  EXPECT_EQ(Error(Sweep("  <simulation measure-periods=\"1\"/>\n")),
+            "3: 'measure-periods' must be a whole number of at least 2, got '1'");
+  EXPECT_EQ(Error(Sweep("  <simulation measure-periods=\"101\"/>\n")),
+            "3: 'measure-periods' must be at most 100, got '101' (each edge is taken from its "
+            "latest complete occurrence; more periods add memory, not accuracy)");
+  EXPECT_EQ(Error(Sweep("  <simulation settle-periods=\"0\"/>\n")),
+            "3: 'settle-periods' must be a whole number of at least 1, got '0'");
+  EXPECT_EQ(Error(Sweep("  <simulation settle-periods=\"2000\"/>\n")),
+            "3: 'settle-periods' (2000) is more than 'max-periods' (1000): settling stops after "
+            "max-periods periods");
+  EXPECT_EQ(Error(Sweep("  <simulation settle-periods=\"50\" max-periods=\"40\"/>\n")),
+            "3: 'settle-periods' (50) is more than 'max-periods' (40): settling stops after "
+            "max-periods periods");
+  EXPECT_EQ(Error(Sweep("  <simulation reltol=\"0.5\"/>\n")),
+            "3: 'reltol' must be at most 0.1, got '0.5' (coarser than any result worth "
+            "measuring)");
+  EXPECT_EQ(Error(Sweep("  <simulation reltol=\"1e-12\"/>\n")),
+            "3: 'reltol' must be at least 1e-09, got '1e-12' (finer than double precision can "
+            "solve)");
+  EXPECT_EQ(Error(Sweep("  <simulation timeout=\"0\"/>\n")),
+            "3: 'timeout' must be positive, got '0'");
+  EXPECT_EQ(Error(Sweep("  <simulation timeout=\"-5\"/>\n")),
+            "3: 'timeout' must be positive, got '-5'");
+  EXPECT_EQ(Error(Sweep("  <simulation timeout=\"0.5\"/>\n")),
+            "3: 'timeout' must be at least 1, got '0.5' (seconds; no point settles in less)");
+  EXPECT_EQ(Error(Sweep("  <simulation max-step=\"0\"/>\n")),
+            "3: 'max-step' must be positive, got '0'");
+  EXPECT_EQ(Error(Sweep("  <simulation max-step=\"2\"/>\n")),
+            "3: 'max-step' must be at most 1, got '2' (a step bound of seconds resolves no edge)");
+  EXPECT_EQ(Error(Sweep("  <simulation settle-tolerance=\"0.5\"/>\n")),
+            "3: 'settle-tolerance' must be at most 0.1, got '0.5' (relative to each state's "
+            "ripple: above 10% a drifting state counts as settled)");
+  EXPECT_EQ(Error(Sweep("  <simulation max-newton=\"500\"/>\n")),
+            "3: 'max-newton' must be at most 100, got '500' (Newton converges in a few "
+            "iterations or not at all)");
+  EXPECT_EQ(Error(Sweep("  <simulation max-periods=\"0\"/>\n")),
+            "3: 'max-periods' must be a whole number of at least 1, got '0'");
+  EXPECT_EQ(Error(Sweep("  <zvs residual=\"150%\"/>\n")),
+            "3: 'residual' must be below 50%, got '150%' (an edge above half the rail is hard, "
+            "so no edge could be partial)");
+  EXPECT_EQ(Error(Sweep("  <zvs residual=\"-2\"/>\n")), "3: 'residual' must be positive, got '-2'");
+  // The edges of each range are inside it.
+  SweepSpec spec = Parse(Sweep(
+      "  <simulation settle-periods=\"1\" measure-periods=\"100\" reltol=\"0.1\" timeout=\"1\"\n"
+      "              max-newton=\"0\" max-periods=\"1\" settle-tolerance=\"0.1\" max-step=\"1\"/>\n"
+      "  <zvs residual=\"49.9%\"/>\n"));
+  EXPECT_EQ(spec.simulation.settle_periods, 1);
+  EXPECT_EQ(spec.simulation.measure_periods, 100);
+  EXPECT_DOUBLE_EQ(spec.zvs.value, 0.499);
+}
+
+// Numbers that read differently in SPICE than they look (core/spice_number.h;
+// ngspice source inpeval.c, INPevaluate).
+TEST_F(SweepParserTest, NumbersThatReadDifferentlyThanTheyLook) {
+  EXPECT_EQ(Error(Sweep("  <axis param=\"fsw\" values=\"100k 0.5MHz\"/>\n")),
+            "3: in attribute 'values': '0.5MHz' is 0.5 milli (0.0005) in SPICE, which reads 'M' "
+            "as milli; write '0.5meg' for mega or '0.5m' for milli");
+  EXPECT_EQ(error_.Format(),
+            "sweeps/demo.xml:3: in attribute 'values': '0.5MHz' is 0.5 milli (0.0005) in SPICE, "
+            "which reads 'M' as milli; write '0.5meg' for mega or '0.5m' for milli\n"
+            "  <axis param=\"fsw\" values=\"100k 0.5MHz\"/>\n"
+            "                    ^");
+  EXPECT_EQ(Error(Sweep("  <set param=\"Iout\" value=\"2A\"/>\n")),
+            "3: in attribute 'value': '2A' is 2 atto (2e-18) in SPICE, which reads 'A' as atto; "
+            "write '2' for 2 amperes, or '2e-18' for atto");
+  EXPECT_EQ(Error(Sweep("  <set param=\"Vin\" value=\"1xyz\"/>\n")),
+            "3: in attribute 'value': SPICE ignores the letters 'xyz' in '1xyz' and reads 1; "
+            "write '1' (after a number and its scale factor zvsmap takes only the unit symbols "
+            "V, A, H, F, Hz, s, Ohm, W, J)");
+  EXPECT_EQ(Error(Sweep("  <axis param=\"R\" from=\"1M\" to=\"2meg\" count=\"3\"/>\n")),
+            "3: in attribute 'from': '1M' is 1 milli (0.001) in SPICE, which reads 'M' as milli; "
+            "write '1meg' for mega or '1m' for milli");
+  EXPECT_EQ(Error(Sweep("  <zvs residual=\"2A\"/>\n")).substr(0, 40),
+            "3: in attribute 'residual': '2A' is 2 at");
+  EXPECT_EQ(
+      Error(Sweep("  <require edge=\"high_on\" metric=\"t_zvs_s\" max=\"1M\"/>\n")).substr(0, 38),
+      "3: in attribute 'max': '1M' is 1 milli");
+  EXPECT_EQ(Error(Sweep("  <predict name=\"t\" expr=\"1\" tolerance=\"1Mxyz\"/>\n")).substr(0, 45),
+            "3: in attribute 'tolerance': '1Mxyz' is 1 mil");
+}
+
+TEST_F(SweepParserTest, UnitLettersSpiceIgnoresAreWarnings) {
+  SweepSpec spec =
+      Parse(Sweep("  <set param=\"L\" value=\"10uH\"/>\n"
+                  "  <axis param=\"Vin\" values=\"36 48V\"/>\n"
+                  "  <zvs residual=\"5V\"/>\n"));
+  EXPECT_DOUBLE_EQ(spec.fixed[0].value, 10e-6);
+  EXPECT_DOUBLE_EQ(spec.groups[0].axes[0].values[1], 48);
+  ASSERT_EQ(spec.warnings.size(), 3u);
+  EXPECT_EQ(spec.warnings[0].Format(),
+            "sweeps/demo.xml:3: in attribute 'value': '10uH' is read as 10u (1e-05): SPICE "
+            "ignores the unit letters 'H', and zvsmap does not check them against the "
+            "parameter\n"
+            "  <set param=\"L\" value=\"10uH\"/>\n"
+            "                 ^");
+  EXPECT_EQ(spec.warnings[1].where.line, 4);
+  EXPECT_EQ(spec.warnings[2].message,
+            "in attribute 'residual': '5V' is read as 5: SPICE ignores the unit letters 'V', and "
+            "zvsmap does not check them against the parameter");
+  EXPECT_TRUE(Parse(Sweep("  <set param=\"L\" value=\"10u\"/>\n")).warnings.empty());
 }
 
 TEST_F(SweepParserTest, TextAndContentAreRefused) {
