@@ -5,7 +5,7 @@
 #include <fstream>
 #include <sstream>
 
-#include "analysis/edge_metrics.h"
+#include "result/edge_metrics.h"
 #include "core/source_text.h"
 #include "core/spice_number.h"
 #include "core/text.h"

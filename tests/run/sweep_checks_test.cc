@@ -2,7 +2,7 @@
 
 #include <gtest/gtest.h>
 
-#include "analysis/edge_metrics.h"
+#include "result/edge_metrics.h"
 #include "run/check_fixture.h"
 
 namespace zvsmap {
