@@ -121,6 +121,27 @@ bool ClassifyDotCard(const std::string& t, CardClass* out, std::string* reason) 
   return false;
 }
 
+// A parameter whose name ends in "file" (`file=`, `input_file=`, ...): a code
+// model or source that ngspice would open a file for by itself.
+bool NamesAFile(const std::string& t, std::string* reason, int* column, size_t offset) {
+  std::string lower = Lower(t);
+  for (size_t at = lower.find("file"); at != std::string::npos; at = lower.find("file", at + 1)) {
+    size_t after = at + 4;
+    while (after < lower.size() && lower[after] == ' ') ++after;
+    if (after >= lower.size() || lower[after] != '=') continue;
+    size_t start = at;
+    while (start > 0 &&
+           (std::isalnum(static_cast<unsigned char>(lower[start - 1])) || lower[start - 1] == '_'))
+      --start;
+    *column = static_cast<int>(offset + start + 1);
+    *reason = "'" + t.substr(start, at + 4 - start) +
+              "=' names a file ngspice would open by itself; zvsmap passes on only what it has "
+              "read (put the data in the netlist)";
+    return true;
+  }
+  return false;
+}
+
 }  // namespace
 
 std::string DescribeChar(unsigned char c) {
@@ -181,9 +202,9 @@ bool ClassifyCard(const std::string& card, CardClass* out, std::string* reason, 
   }
   if (std::isalpha(static_cast<unsigned char>(first))) {
     out->kind = CardKind::kElement;
-    return true;
+    return !NamesAFile(t, reason, column, b);
   }
-  if (first == '.') return ClassifyDotCard(t, out, reason);
+  if (first == '.') return ClassifyDotCard(t, out, reason) && !NamesAFile(t, reason, column, b);
   *reason = std::string(
                 "a card starts with a letter (an element), '.' (a control card), '*' (a "
                 "comment) or '+' (a continuation), not '") +

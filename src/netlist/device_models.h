@@ -62,7 +62,8 @@ bool ResolveSweepDevices(const SweepSpec& spec, const Template& tmpl,
 /// The lines that put `device` in a netlist as the three-terminal switch
 /// `instance` between `drain`, `gate`, `source`: `definitions` (the generic
 /// subcircuit's text unless `defined_subckts` already has it; a user model's
-/// cards are `model_cards`, added by ApplyDevices; sources for fixed-voltage pins; a wrapper when
+/// cards are `model_cards`, which ApplyDevicesToDeck adds and any other caller
+/// must put before the definitions; sources for fixed-voltage pins; a wrapper when
 /// the subcircuit has no `vch`) and the `instance` line. `inherited` are name=value parameters of
 /// the template's instance: only `vds0_v` (the initial drain-source voltage, a property of the
 /// circuit) is kept, and only when the subcircuit declares it; then the device's own params are

@@ -15,6 +15,8 @@ std::string Header(const ResolvedDevice& device, const char* what, double v_gate
   DeviceLines lines = InstantiateDevice(device, "xdut", "d", "g", "0", {}, {});
   std::ostringstream out;
   out << "zvsmap switch characterisation: " << what << " of " << device.subckt.name << "\n";
+  // A user model's cards, read and checked by ResolveDevice (ngspice opens no file).
+  for (const DeckLine& card : device.model_cards) out << card.text << "\n";
   for (const auto& d : lines.definitions) out << d;
   out << lines.instance << "\n";
   out << "vgate g 0 dc " << FormatNumber(v_gate_off_v) << "\n";

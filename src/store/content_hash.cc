@@ -68,6 +68,13 @@ std::string PointContentHash(const std::string& canonical_deck, const SweepSpec&
     while (words >> word) annotation += " " + word;
     h = Fnv1a64(kSeparator + annotation, h);
   }
+  // The sweep's own <predict> formulas: their columns are stored with the point.
+  for (const PredictionSpec& p : spec.predictions) {
+    std::snprintf(buf, sizeof buf, "|%.17g|%.17g", p.tolerance_rel, p.tolerance_abs);
+    h = Fnv1a64(kSeparator + "predict|" + p.name + "|" + p.expression + "|" + p.compare + "|" +
+                    p.edge + "|" + p.cell + buf,
+                h);
+  }
   h = Fnv1a64(kSeparator + ZVSMAP_VERSION, h);
   return HexHash(h);
 }

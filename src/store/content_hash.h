@@ -26,9 +26,9 @@ std::string SweepIdentity(const std::string& sweep_path, const std::string& temp
 /// without title, comments and blank lines, so it names no path and no point
 /// index), everything else that changes its measured result (simulation
 /// settings, ZVS criterion, the template's `*@` annotations, blanks
-/// collapsed) and the zvsmap version. Equal hashes mean the stored result can
-/// be reused. When new sweep settings start to affect a point's result, add
-/// them here.
+/// collapsed, the sweep's `<predict>` elements) and the zvsmap version. Equal hashes mean the
+/// stored result can be reused. When new sweep settings start to affect a point's result, add them
+/// here.
 std::string PointContentHash(const std::string& canonical_deck, const SweepSpec& spec,
                              const Template& tmpl);
 

@@ -89,6 +89,17 @@ TEST(DeckRulesTest, CardsStartWithALetterDotStarOrPlus) {
   EXPECT_NE(Refusal("$ x"), "");
 }
 
+TEST(DeckRulesTest, CardsThatMakeNgspiceOpenAFileAreRefused) {
+  int column = 0;
+  EXPECT_EQ(Refusal(".model src filesource(file=\"/etc/x\" amploffset=[0])", &column),
+            "'file=' names a file ngspice would open by itself; zvsmap passes on only what it has "
+            "read (put the data in the netlist)");
+  EXPECT_EQ(column, 23);
+  EXPECT_NE(Refusal(".model dsrc d_source(input_file = \"x.txt\")").find("'input_file='"),
+            std::string::npos);
+  EXPECT_EQ(Refusal("rfile a 0 1"), "");
+}
+
 TEST(DeckRulesTest, ControlCharactersNeverReachACard) {
   int column = 0;
   EXPECT_EQ(Refusal("r1 a b 1\r.control", &column),

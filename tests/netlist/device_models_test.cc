@@ -169,6 +169,40 @@ TEST_F(DeviceModelsTest, BadPinMapSyntaxAndUnknownNamesAreParseErrors) {
             "s.xml:3: device 'a': subcircuit 'zsw_junktion' not found in 'netlists/");
 }
 
+TEST_F(DeviceModelsTest, SweepValuesThatReachTheDeckStayOneToken) {
+  // &#10; is a line feed inside an XML attribute (XML 1.0, sec. 3.3.3).
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet_sdg\" pins=\"s d g\" "
+              "params=\"rg=2&#10;.control&#10;shell touch x&#10;.endc\"/>\n"));
+  EXPECT_EQ(FirstError(),
+            "s.xml:3: device 'a': params holds a line break (LF) at character 5; a parameter "
+            "list stays on one card");
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" file=\"models.lib\" section=\"typ&#10;.endc\" subckt=\"fet_sdg\" "
+              "pins=\"s d g\"/>\n"));
+  EXPECT_EQ(FirstError(),
+            "s.xml:3: device 'a': section 'typ\\n.endc' is not a library section name (letters, "
+            "digits and _ . - only)");
+  EXPECT_FALSE(
+      Resolve("<device name=\"a\" file=\"models.lib\" subckt=\"fet_sdg\" pins=\"s d g\" "
+              "params=\"rgg=2\"/>\n"));
+  EXPECT_EQ(FirstError(), "s.xml:3: device 'a': params names 'rgg', which subcircuit 'fet_sdg' (" +
+                              (dir_ / "models.lib").string() +
+                              ":2) does not declare (it declares: rg; did you mean 'rg'?)");
+}
+
+TEST_F(DeviceModelsTest, ModelFilesPassTheDeckRules) {
+  std::ofstream(dir_ / "evil.lib") << ".subckt q d g s\nr1 d s 1\n.ends\n*#shell touch x\n";
+  EXPECT_FALSE(Resolve("<device name=\"a\" file=\"evil.lib\" subckt=\"q\" pins=\"d g s\"/>\n"));
+  EXPECT_EQ(FirstError(),
+            "evil.lib:4: '*#' lines are commands to ngspice (run like a control section); a "
+            "zvsmap deck holds no commands");
+  std::ofstream(dir_ / "bin.lib", std::ios::binary) << std::string("\0\x01\x02", 3);
+  EXPECT_FALSE(Resolve("<device name=\"a\" file=\"bin.lib\" subckt=\"q\" pins=\"d g s\"/>\n"));
+  EXPECT_EQ(FirstError(), "s.xml:3: device 'a': '" + (dir_ / "bin.lib").string() +
+                              "' is a binary file (it holds NUL bytes), not a SPICE netlist");
+}
+
 TEST_F(DeviceModelsTest, RoleMustNameACellOfTheTemplate) {
   EXPECT_FALSE(
       Resolve("<device name=\"a\" model=\"zsw_linear\"/>\n"
