@@ -19,7 +19,14 @@ namespace zvsmap {
 
 namespace {
 
-std::string Seconds(double v) { return FormatNumber(v) + " s"; }
+// Six significant digits: enough to see the mistake, short enough to read.
+std::string Short(double v) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.6g", v);
+  return buf;
+}
+
+std::string Seconds(double v) { return Short(v) + " s"; }
 
 std::string Count(double n) {
   char buf[32];
@@ -303,7 +310,7 @@ void CheckPositiveParams(const PointContext& c) {
       double v = c.resolved.at(name);
       if (v > 0) continue;
       c.Add(c.ParamPlace(name), "cell " + cell.name + "'s " + key + " '" + name + "' must be > 0",
-            name + " = " + FormatNumber(v), name);
+            name + " = " + Short(v), name);
     }
   }
 }
@@ -316,7 +323,7 @@ void CheckValueCards(const PointContext& c, const std::vector<ValueCard>& cards)
     c.Add({c.tmpl.path, card.line, c.source.FindText(card.line, card.value)},
           std::string(inductor ? "inductor " : "capacitor ") + card.element + "'s value '" +
               card.value + "' must be > 0",
-          "it is " + FormatNumber(v), card.value);
+          "it is " + Short(v), card.value);
   }
 }
 
