@@ -92,7 +92,12 @@ void ScanCards(const Template& tmpl, std::vector<ValueCard>* values,
                std::vector<CommandSource>* commands) {
   static const std::regex kPulse(R"(\bpulse\s*\()", std::regex::icase);
   int subckt_depth = 0;
+  bool title = true;  // SPICE reads the first line as the title
   for (const auto& [line, text] : tmpl.lines) {
+    if (title) {
+      title = false;
+      continue;
+    }
     std::string t = Trim(text);
     std::string lower = Lower(t);
     if (lower.rfind(".subckt", 0) == 0) ++subckt_depth;
