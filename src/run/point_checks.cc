@@ -227,6 +227,7 @@ class EvalCache {
     }
     auto hit = e.results.find(key);
     if (hit == e.results.end()) {
+      if (e.results.size() >= kMaxRemembered) e.results.clear();  // bounded memory
       double v = 0;
       std::string message;
       int column = 0;
@@ -239,6 +240,7 @@ class EvalCache {
   }
 
  private:
+  static constexpr size_t kMaxRemembered = 4096;  // results per expression
   struct Entry {
     bool scanned = false;
     std::vector<std::string> names;
