@@ -16,6 +16,11 @@ namespace {
 
 bool Number(const std::string& option, const std::string& text, double* value) {
   if (text.empty()) return true;
+  NumberSpelling spelling = JudgeSpiceSpelling(text);
+  if (spelling.kind == NumberSpelling::Kind::kRefused) {
+    std::fprintf(stderr, "zvsmap: error: %s: %s\n", option.c_str(), spelling.message.c_str());
+    return false;
+  }
   std::optional<double> v = ParseSpiceNumber(text);
   if (!v) {
     std::fprintf(stderr, "zvsmap: error: %s: bad number '%s'\n", option.c_str(), text.c_str());

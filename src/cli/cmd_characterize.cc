@@ -21,6 +21,11 @@ namespace zvsmap::cli {
 namespace {
 
 bool Number(const std::string& option, const std::string& text, double* value) {
+  NumberSpelling spelling = JudgeSpiceSpelling(text);
+  if (spelling.kind == NumberSpelling::Kind::kRefused) {
+    std::fprintf(stderr, "zvsmap: error: %s: %s\n", option.c_str(), spelling.message.c_str());
+    return false;
+  }
   std::optional<double> v = ParseSpiceNumber(text);
   if (!v || !(*v > 0)) {
     std::fprintf(stderr, "zvsmap: error: %s: bad or non-positive number '%s'\n", option.c_str(),

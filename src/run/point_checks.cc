@@ -19,7 +19,14 @@ namespace zvsmap {
 
 namespace {
 
-std::string Seconds(double v) { return FormatNumber(v) + " s"; }
+// Six significant digits: enough to see the mistake, short enough to read.
+std::string Short(double v) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.6g", v);
+  return buf;
+}
+
+std::string Seconds(double v) { return Short(v) + " s"; }
 
 std::string Count(double n) {
   char buf[32];
@@ -85,7 +92,12 @@ void ScanCards(const Template& tmpl, std::vector<ValueCard>* values,
                std::vector<CommandSource>* commands) {
   static const std::regex kPulse(R"(\bpulse\s*\()", std::regex::icase);
   int subckt_depth = 0;
+  bool title = true;  // SPICE reads the first line as the title
   for (const auto& [line, text] : tmpl.lines) {
+    if (title) {
+      title = false;
+      continue;
+    }
     std::string t = Trim(text);
     std::string lower = Lower(t);
     if (lower.rfind(".subckt", 0) == 0) ++subckt_depth;
@@ -215,6 +227,7 @@ class EvalCache {
     }
     auto hit = e.results.find(key);
     if (hit == e.results.end()) {
+      if (e.results.size() >= kMaxRemembered) e.results.clear();  // bounded memory
       double v = 0;
       std::string message;
       int column = 0;
@@ -227,6 +240,7 @@ class EvalCache {
   }
 
  private:
+  static constexpr size_t kMaxRemembered = 4096;  // results per expression
   struct Entry {
     bool scanned = false;
     std::vector<std::string> names;
@@ -303,7 +317,7 @@ void CheckPositiveParams(const PointContext& c) {
       double v = c.resolved.at(name);
       if (v > 0) continue;
       c.Add(c.ParamPlace(name), "cell " + cell.name + "'s " + key + " '" + name + "' must be > 0",
-            name + " = " + FormatNumber(v), name);
+            name + " = " + Short(v), name);
     }
   }
 }
@@ -316,7 +330,7 @@ void CheckValueCards(const PointContext& c, const std::vector<ValueCard>& cards)
     c.Add({c.tmpl.path, card.line, c.source.FindText(card.line, card.value)},
           std::string(inductor ? "inductor " : "capacitor ") + card.element + "'s value '" +
               card.value + "' must be > 0",
-          "it is " + FormatNumber(v), card.value);
+          "it is " + Short(v), card.value);
   }
 }
 

@@ -722,8 +722,11 @@ std::vector<Diagnostic> CheckParamsKnown(const SweepSpec& spec,
     std::string best = ClosestName(name, known);
     Diagnostic d;
     d.where = where;
+    std::string declared;
+    for (const std::string& k : known) declared += (declared.empty() ? "" : ", ") + k;
     d.message = "unknown parameter '" + name + "' (the template declares no such .param" +
-                (best.empty() ? std::string() : "; did you mean '" + best + "'?") + ")";
+                (best.empty() ? std::string() : "; did you mean '" + best + "'?") +
+                (declared.empty() ? "; it declares none" : "; declared: " + declared) + ")";
     problems.push_back(std::move(d));
   }
   return problems;

@@ -31,6 +31,15 @@ TEST_F(PointChecksTest, TheFixtureItselfPasses) {
   EXPECT_TRUE(Check().empty());
 }
 
+TEST_F(PointChecksTest, TheTitleLineIsNoCard) {
+  // SPICE takes the first line as the title (ngspice manual, "Input file
+  // structure", from memory), even when it reads like a capacitor card.
+  std::string text = TemplateText();
+  text.replace(0, text.find('\n'), "c1 a b 0 title line, invented");
+  Load("", text);
+  EXPECT_TRUE(Check().empty());
+}
+
 TEST_F(PointChecksTest, ZeroFrequencyLeavesNoPeriod) {
   Load("  <axis param=\"fsw\" values=\"500k 0\"/>\n");
   std::vector<Diagnostic> problems = Check();

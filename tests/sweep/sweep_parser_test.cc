@@ -579,9 +579,10 @@ TEST_F(SweepParserTest, CheckParamsKnown) {
   ASSERT_EQ(problems.size(), 2u);
   EXPECT_EQ(problems[0].Format(),
             "sweeps/demo.xml:4: unknown parameter 'Lout' (the template declares no such "
-            ".param; did you mean 'l_out'?)");
+            ".param; did you mean 'l_out'?; declared: vin, l_out, fsw)");
   EXPECT_EQ(problems[1].Format(),
-            "sweeps/demo.xml:5: unknown parameter 'Dead' (the template declares no such .param)");
+            "sweeps/demo.xml:5: unknown parameter 'Dead' (the template declares no such .param; "
+            "declared: vin, l_out, fsw)");
   EXPECT_TRUE(CheckParamsKnown(spec, {"VIN", "LOUT", "dead"}).empty());
 }
 
