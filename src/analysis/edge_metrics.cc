@@ -14,6 +14,17 @@ const char* ZvsClassName(ZvsClass c) {
   return "unknown";
 }
 
+const std::vector<std::string>& EdgeMetricColumns() {
+  static const std::vector<std::string> kColumns = {
+      "rail_v",         "i_commutated_a",     "t_dead_s",       "v_turn_on_v",
+      "v_at_vth_v",     "v_residual_limit_v", "t_transition_s", "t_clamp_s",
+      "t_zvs_s",        "dvdt_peak_v_per_s",  "t_reverse_s",    "v_ds_min_v",
+      "ringback",       "t_ringback_s",       "v_ringback_v",   "e_on_j",
+      "e_off_j",        "e_cap_est_j",        "e_available_j",  "e_needed_j",
+      "zvs_energy_margin"};
+  return kColumns;
+}
+
 double EdgeMeasurement::Get(const std::string& column) const {
   for (const auto& m : metrics)
     if (m.column == column) return m.value;

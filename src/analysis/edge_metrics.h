@@ -19,6 +19,12 @@ struct Metric {
   double value = 0;
 };
 
+/// The metric columns MeasureEdge writes for every edge, in output order
+/// (definitions in analysis/commutation.h). Requirements and predictions may
+/// name these, plus "zvs_margin" and "zvs_full" and the hand calculation's
+/// paired columns.
+const std::vector<std::string>& EdgeMetricColumns();
+
 /// The measurements of one commutation edge (a turn-off command of one switch
 /// followed by the turn-on command of the other).
 struct EdgeMeasurement {

@@ -81,6 +81,16 @@ TEST_F(CommutationTest, RisingEdgeIsFullZvsWithTenToNinetyTime) {
   EXPECT_NEAR(m.Get("t_dead_s"), 50e-9, 0.2e-9);
 }
 
+// The listing `zvsmap params` prints is the list MeasureEdge writes (the
+// definitions block of analysis/commutation.h).
+TEST_F(CommutationTest, ListedMetricColumnsAreTheOnesMeasured) {
+  auto edges = FindEdges(cell_, waves_, 0.02e-6);
+  EdgeMeasurement m = MeasureEdge(cell_, waves_, edges[0], ZvsCriterion());
+  std::vector<std::string> measured;
+  for (const Metric& metric : m.metrics) measured.push_back(metric.column);
+  EXPECT_EQ(measured, EdgeMetricColumns());
+}
+
 TEST_F(CommutationTest, FallingEdgeThatStallsIsPartialWithoutTransitionTime) {
   auto edges = FindEdges(cell_, waves_, 0.02e-6);
   ZvsCriterion crit;

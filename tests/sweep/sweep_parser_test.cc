@@ -474,9 +474,12 @@ TEST_F(SweepParserTest, CheckParamsKnown) {
   ASSERT_EQ(problems.size(), 2u);
   EXPECT_EQ(problems[0].Format(),
             "sweeps/demo.xml:4: unknown parameter 'Lout' (the template declares no such "
-            ".param; did you mean 'l_out'?)");
+            ".param; did you mean 'l_out'?; `zvsmap params sweeps/demo.xml` lists them all)");
+  // No name within the did-you-mean distance: the three nearest by edit
+  // distance (Levenshtein 1966: Dead-vin 4, Dead-fsw 4, Dead-l_out 5).
   EXPECT_EQ(problems[1].Format(),
-            "sweeps/demo.xml:5: unknown parameter 'Dead' (the template declares no such .param)");
+            "sweeps/demo.xml:5: unknown parameter 'Dead' (the template declares no such .param; "
+            "closest: 'vin', 'fsw', 'l_out'; `zvsmap params sweeps/demo.xml` lists them all)");
   EXPECT_TRUE(CheckParamsKnown(spec, {"VIN", "LOUT", "dead"}).empty());
 }
 
