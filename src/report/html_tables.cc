@@ -3,7 +3,9 @@
 #include <algorithm>
 #include <cmath>
 #include <cstdio>
+#include <optional>
 
+#include "core/spice_number.h"
 #include "core/text.h"
 #include "report/html_index.h"
 #include "report/units.h"
@@ -279,7 +281,9 @@ std::string HtmlSettings(const ReportInput& input) {
         h += "<tr>" + Td(name) + (varies ? Td("varies per point") : Num(v, "s")) +
              Td("sweep file") + "</tr>\n";
       } else if (const ParamDecl* decl = input.tmpl.FindParam(param)) {
-        h += "<tr>" + Td(name) + Td(decl->expression) + Td("template default") + "</tr>\n";
+        std::optional<double> number = ParseSpiceNumber(decl->expression);
+        h += "<tr>" + Td(name) + (number ? Num(*number, "s") : Td("{" + decl->expression + "}")) +
+             Td("template default") + "</tr>\n";
       }
     }
   }

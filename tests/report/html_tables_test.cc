@@ -28,7 +28,20 @@ TEST(HtmlTablesTest, BoundaryWorstPointsFailuresAndSettings) {
   EXPECT_NE(edges.find("data-value=\"-2.5\">-2.5 V</td>"), std::string::npos);
   std::string failed = HtmlFailedPoints(s.Input());
   EXPECT_NE(failed.find("timestep too small &lt;at&gt; 1 &amp; 2"), std::string::npos);
+  CellSpec cell;
+  cell.name = "leg";
+  cell.high_dead = "td_lh";
+  s.tmpl.cells.push_back(cell);
+  ParamDecl td;
+  td.name = "td_lh";
+  td.expression = "40n";
+  s.tmpl.params.push_back(td);
   std::string settings = HtmlSettings(s.Input());
+  // The dead time used, from the template's default, with its unit.
+  EXPECT_NE(settings.find(
+                "dead time leg.high_on (td_lh)</td><td class=\"num\" data-value=\"4e-08\">40 ns"),
+            std::string::npos)
+      << settings;
   EXPECT_NE(settings.find("680 nH"), std::string::npos);
   EXPECT_NE(HtmlRecommendedDeadTime(s.Input()).find("id=\"recommended-dead-time\""),
             std::string::npos);
