@@ -271,9 +271,8 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
   std::string value_column = is_margin ? margin.column : column;
   std::string pred_column = value_column.empty() ? "" : value_column + "__pred";
 
-  std::string y_unit =
-      is_margin ? (margin.column.empty() ? margin.unit : MetricUnit(margin.column))
-                : MetricUnit(column);
+  std::string y_unit = is_margin ? (margin.column.empty() ? margin.unit : MetricUnit(margin.column))
+                                 : MetricUnit(column);
   bool is_turn_on = column == "v_turn_on_v";
   struct Sample {
     double x, y, pred, limit;
@@ -299,8 +298,7 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
                            FormatQuantity(y, y_unit)});
   }
 
-  std::string y_label =
-      AxisLabel(is_margin ? "ZVS margin: " + margin.description : column, y_unit);
+  std::string y_label = AxisLabel(is_margin ? "ZVS margin: " + margin.description : column, y_unit);
   std::string slice = SliceText(grid, fixed, {dim});
   std::string slice_title = SliceTitle(grid, fixed, {dim});
   std::string title = key.Label() + ": " + (is_margin ? "zvs_margin" : column) + " versus " +

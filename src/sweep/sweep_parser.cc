@@ -636,7 +636,7 @@ std::vector<Diagnostic> CheckParamsKnown(const SweepSpec& spec,
     Diagnostic d;
     d.where = where;
     d.message = "unknown parameter '" + name + "' (the template declares no such .param" +
-                (!best.empty()      ? "; did you mean '" + best + "'?"
+                (!best.empty()    ? "; did you mean '" + best + "'?"
                  : listed.empty() ? std::string()
                                   : "; closest: " + listed) +
                 "; `zvsmap params " + spec.path + "` lists them all)";
