@@ -20,6 +20,8 @@ void AddRenderCommand(CLI::App& app, int* exit_code);
 void AddPointsCommand(CLI::App& app, int* exit_code);
 /// Adds `zvsmap explain` (one point's hand calculation beside its simulation).
 void AddExplainCommand(CLI::App& app, int* exit_code);
+/// Adds `zvsmap params` (a template's parameters, cells, edges, metrics, switch models).
+void AddParamsCommand(CLI::App& app, int* exit_code);
 
 /// Adds `zvsmap calibrate` (fit Coss forms to datasheet-style numbers).
 void AddCalibrateCommand(CLI::App& app, int* exit_code);

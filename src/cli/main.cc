@@ -27,6 +27,7 @@ int main(int argc, char** argv) {
   zvsmap::cli::AddRenderCommand(app, &exit_code);
   zvsmap::cli::AddPointsCommand(app, &exit_code);
   zvsmap::cli::AddExplainCommand(app, &exit_code);
+  zvsmap::cli::AddParamsCommand(app, &exit_code);
   zvsmap::cli::AddCalibrateCommand(app, &exit_code);
   zvsmap::cli::AddCharacterizeCommand(app, &exit_code);
   try {

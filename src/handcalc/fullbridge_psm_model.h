@@ -1,4 +1,4 @@
-// The phase-shift-modulated full bridge's hand calculation (REFERENCES.md
+// The phase-shift-modulated full bridge's hand calculation (docs/references.md
 // section 4).
 #pragma once
 

@@ -1,5 +1,7 @@
 #include "report/html_index.h"
 
+#include "report/html_tables.h"
+
 namespace zvsmap {
 
 std::string HtmlEscape(const std::string& text) {
@@ -66,6 +68,9 @@ th { background: #eee; }
 .caution { border-left: 6px solid #D55E00; background: #fff4ec; padding: 0.5em 1em; }
 figure { margin: 1.5em 0; } img { max-width: 100%; border: 1px solid #ddd; }
 pre { margin: 0; white-space: pre-wrap; font-size: 0.85em; }
+td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
+section.edge { border-top: 2px solid #ccc; margin-top: 2em; }
+.slot { color: #555; font-style: italic; }
 </style>
 </head>
 <body>
@@ -100,6 +105,11 @@ pre { margin: 0; white-space: pre-wrap; font-size: 0.85em; }
     }
     h += "</table>\n";
   }
+
+  h += HtmlEdgeSections(input);
+  h += HtmlRecommendedDeadTime(input);
+  h += HtmlFailedPoints(input);
+  h += HtmlSettings(input);
 
   h += "<h2>Plots</h2>\n";
   if (plots.empty()) h += "<p>No plots: the sweep has no swept axis or no measured edge.</p>\n";

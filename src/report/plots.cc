@@ -8,6 +8,7 @@
 
 #include "core/spice_number.h"
 #include "report/svg_canvas.h"
+#include "report/units.h"
 
 namespace zvsmap {
 
@@ -21,6 +22,7 @@ const char* kHard = "#D55E00";
 const char* kUnknown = "#bbbbbb";
 const char* kNotRun = "#666666";
 const char* kBoundary = "#000000";
+const char* kHandBoundary = "#CC79A7";
 
 const char* ClassColour(ZvsClass c) {
   switch (c) {
@@ -45,9 +47,14 @@ std::string Safe(const std::string& s) {
 }
 
 std::string DimLabel(const GridDim& dim) {
-  std::string label = dim.param;
+  std::string label = AxisLabel(dim.param, ParamUnit(dim.param));
   for (const std::string& a : dim.also) label += " (with " + a + ")";
   return label;
+}
+
+// A swept value as people read it: "680 nH", "2 A".
+std::string DimValue(const GridDim& dim, double v) {
+  return FormatQuantity(v, ParamUnit(dim.param));
 }
 
 // "L=1u, Vin=48" for the held dimensions.
@@ -63,6 +70,19 @@ std::string SliceText(const Grid& grid, const std::vector<int>& fixed,
   return out;
 }
 
+// "L = 1 µH, Vin = 48 V" for the held dimensions (titles; SliceText names files).
+std::string SliceTitle(const Grid& grid, const std::vector<int>& fixed,
+                       const std::vector<size_t>& free_dims) {
+  std::string out;
+  for (size_t d = 0; d < grid.dims.size(); ++d) {
+    if (std::find(free_dims.begin(), free_dims.end(), d) != free_dims.end()) continue;
+    if (grid.dims[d].values.size() < 2 || fixed[d] < 0) continue;
+    out += (out.empty() ? "" : ", ") + grid.dims[d].param + " = " +
+           DimValue(grid.dims[d], grid.dims[d].values[fixed[d]]);
+  }
+  return out;
+}
+
 // The result index at `coords`, or -1.
 std::map<std::vector<int>, size_t> IndexByCoords(const Grid& grid) {
   std::map<std::vector<int>, size_t> out;
@@ -70,19 +90,54 @@ std::map<std::vector<int>, size_t> IndexByCoords(const Grid& grid) {
   return out;
 }
 
-void Legend(SvgCanvas* svg, double x, double y) {
+// The hand calculation's ZVS verdict for a measured edge: 1 full, 0 not,
+// NaN when the results carry none (the built-in model's charge-based
+// verdict paired with the simulated class).
+double PredictedFull(const EdgeMeasurement& e) { return e.Get("zvs_full__pred"); }
+
+// What one map cell shows.
+struct MapCell {
+  bool measured = false;
+  bool ran = false;  // the point ran (status ok)
+  ZvsClass zvs = ZvsClass::kUnknown;
+  double margin = NAN;
+  double predicted_full = NAN;
+  std::string tip;
+};
+
+// The legend: only the classes present, then the boundary lines drawn.
+void MapLegend(SvgCanvas* svg, double x, double y, const std::vector<MapCell>& cells,
+               bool hand_boundary) {
+  bool present[5] = {false, false, false, false, false};
+  for (const MapCell& c : cells) {
+    if (!c.measured) {
+      present[4] = present[4] || !c.tip.empty();
+    } else {
+      present[static_cast<int>(c.zvs)] = true;
+    }
+  }
   const std::pair<const char*, const char*> items[] = {{kFull, "full ZVS"},
                                                        {kPartial, "partial"},
                                                        {kHard, "hard"},
                                                        {kUnknown, "unknown"},
                                                        {kNotRun, "did not run"}};
-  for (const auto& [colour, label] : items) {
-    svg->Rect(x, y - 11, 14, 14, colour);
-    svg->Text(x + 20, y, label, "start", 12);
+  for (int k = 0; k < 5; ++k) {
+    if (!present[k]) continue;
+    svg->Rect(x, y - 11, 14, 14, items[k].first);
+    svg->Text(x + 20, y, items[k].second, "start", 12);
     y += 20;
   }
+  y += 6;
   svg->Line(x, y - 4, x + 14, y - 4, kBoundary, 3);
-  svg->Text(x + 20, y, "boundary", "start", 12);
+  svg->Text(x + 20, y, "ZVS boundary:", "start", 12);
+  svg->Text(x + 20, y + 15, "cell edges where", "start", 11);
+  svg->Text(x + 20, y + 29, "full ZVS begins", "start", 11);
+  if (hand_boundary) {
+    y += 50;
+    svg->Line(x, y - 4, x + 14, y - 4, kHandBoundary, 2.5, true);
+    svg->Text(x + 20, y, "hand calculation", "start", 12);
+    svg->Text(x + 20, y + 15, "(predicted boundary)", "start", 11);
+  }
 }
 
 // Tick every k-th label so at most ~10 show.
@@ -92,92 +147,111 @@ size_t TickStride(size_t n) { return n <= 10 ? 1 : (n + 9) / 10; }
 
 Plot ZvsMapPlot(const ReportInput& input, const Grid& grid, const EdgeKey& key, size_t x_dim,
                 size_t y_dim, const std::vector<int>& fixed) {
-  const double kWidth = 760, kHeight = 520, kLeft = 100, kRight = 150, kTop = 50, kBottom = 70;
   const GridDim& xd = grid.dims[x_dim];
   const GridDim& yd = grid.dims[y_dim];
   size_t nx = xd.values.size(), ny = yd.values.size();
-  double plot_w = kWidth - kLeft - kRight, plot_h = kHeight - kTop - kBottom;
-  double cw = plot_w / nx, ch = plot_h / ny;
+  // The canvas grows with the grid so text keeps its size: cells at least
+  // 64 x 26 px (a margin and a tick label fit), at most 110 x 60.
+  const double cw = std::max(64.0, std::min(110.0, 620.0 / nx));
+  const double ch = std::max(26.0, std::min(60.0, 420.0 / ny));
+  const double kLeft = 110, kRight = 190, kTop = 50, kBottom = 80;
+  const double plot_w = cw * nx, plot_h = ch * ny;
+  const double kWidth = kLeft + plot_w + kRight, kHeight = std::max(kTop + plot_h + kBottom, 320.0);
   std::string slice = SliceText(grid, fixed, {x_dim, y_dim});
+  std::string slice_title = SliceTitle(grid, fixed, {x_dim, y_dim});
   std::string title = key.Label() + ": ZVS class over " + xd.param + " and " + yd.param +
-                      (slice.empty() ? "" : " (" + slice + ")");
+                      (slice_title.empty() ? "" : " (" + slice_title + ")");
   SvgCanvas svg(kWidth, kHeight, title);
-  svg.Text(kWidth / 2, 24, title, "middle", 15);
+  svg.Text(kLeft + plot_w / 2, 24, title, "middle", 15);
 
   MarginSource margin = ChooseMargin(input.results);
+  std::string margin_unit = margin.column.empty() ? margin.unit : MetricUnit(margin.column);
   auto index = IndexByCoords(grid);
-  auto cell_x = [&](double pos) { return kLeft + (pos + 0.5) * cw; };
-  auto cell_y = [&](double pos) { return kTop + (ny - 0.5 - pos) * ch; };
+  std::vector<MapCell> cells(nx * ny);
+  auto at = [&](size_t i, size_t j) -> MapCell& { return cells[i * ny + j]; };
   for (size_t i = 0; i < nx; ++i) {
     for (size_t j = 0; j < ny; ++j) {
       std::vector<int> c = fixed;
       c[x_dim] = static_cast<int>(i);
       c[y_dim] = static_cast<int>(j);
       auto found = index.find(c);
-      double x = kLeft + i * cw, y = kTop + (ny - 1 - j) * ch;
-      if (found == index.end() || found->second >= input.results.size()) {
-        svg.Rect(x, y, cw, ch, "#ffffff", "no point");
-        continue;
-      }
+      if (found == index.end() || found->second >= input.results.size()) continue;
       const PointResult& r = input.results[found->second];
       const Point& p = input.points[found->second];
       const EdgeMeasurement* e = r.status == PointStatus::kOk ? FindEdge(r, key) : nullptr;
-      std::string tip = "point " + std::to_string(p.index) + " (" + p.Describe() + "): ";
+      MapCell& cell = at(i, j);
+      cell.ran = r.status == PointStatus::kOk;
+      cell.tip = "point " + std::to_string(p.index) + " (" + p.Describe() + "): ";
       if (!e) {
-        tip += r.status == PointStatus::kOk
-                   ? "edge not measured"
-                   : std::string(PointStatusName(r.status)) + ", " + r.reason;
-        svg.Rect(x, y, cw, ch, kNotRun, tip);
+        cell.tip += cell.ran ? "edge not measured"
+                             : std::string(PointStatusName(r.status)) + ", " + r.reason;
         continue;
       }
-      double m = MarginOf(*e, margin);
-      tip += std::string(ZvsClassName(e->zvs)) + ", margin " + Eng(m);
-      svg.Rect(x, y, cw, ch, ClassColour(e->zvs), tip);
-      if (cw >= 44 && ch >= 18) svg.Text(x + cw / 2, y + ch / 2 + 4, Eng(m), "middle", 10);
+      cell.measured = true;
+      cell.zvs = e->zvs;
+      cell.margin = MarginOf(*e, margin);
+      cell.predicted_full = PredictedFull(*e);
+      cell.tip += std::string(ZvsClassName(e->zvs)) + ", margin " +
+                  FormatQuantity(cell.margin, margin_unit);
     }
   }
-  // Thin grid lines between cells.
-  for (size_t i = 0; i <= nx; ++i) {
-    svg.Line(kLeft + i * cw, kTop, kLeft + i * cw, kTop + plot_h, "#ffffff", 1);
+  auto left = [&](size_t i) { return kLeft + i * cw; };
+  auto top = [&](size_t j) { return kTop + (ny - 1 - j) * ch; };
+  for (size_t i = 0; i < nx; ++i) {
+    for (size_t j = 0; j < ny; ++j) {
+      const MapCell& c = at(i, j);
+      const char* fill = c.measured ? ClassColour(c.zvs) : c.tip.empty() ? "#ffffff" : kNotRun;
+      svg.Rect(left(i), top(j), cw, ch, fill, c.tip.empty() ? "no point" : c.tip);
+      if (c.measured) {
+        svg.Text(left(i) + cw / 2, top(j) + ch / 2 + 4, FormatQuantity(c.margin, margin_unit),
+                 "middle", 10);
+      }
+    }
   }
+  for (size_t i = 0; i <= nx; ++i) svg.Line(left(i), kTop, left(i), kTop + plot_h, "#ffffff", 1);
   for (size_t j = 0; j <= ny; ++j) {
     svg.Line(kLeft, kTop + j * ch, kLeft + plot_w, kTop + j * ch, "#ffffff", 1);
   }
 
-  // The boundary: a segment across the cell row (or column) at the located value.
-  for (const Boundary& b : FindBoundaries(grid, input.results, key, margin)) {
-    if (b.dim != x_dim && b.dim != y_dim) continue;
-    bool in_slice = true;
-    for (size_t d = 0; d < grid.dims.size(); ++d) {
-      if (d == x_dim || d == y_dim) continue;
-      in_slice = in_slice && b.at[d] == fixed[d];
-    }
-    if (!in_slice) continue;
-    if (b.dim == x_dim) {
-      double x = cell_x(b.position), yc = cell_y(b.at[y_dim]);
-      svg.Line(x, yc - ch / 2, x, yc + ch / 2, kBoundary, 3);
-    } else {
-      double y = cell_y(b.position), xc = cell_x(b.at[x_dim]);
-      svg.Line(xc - cw / 2, y, xc + cw / 2, y, kBoundary, 3);
+  // Boundaries along the shared cell edges where full ZVS starts or stops,
+  // so the line follows the colours; the hand calculation's dashed on top.
+  bool hand = false;
+  auto full = [](const MapCell& c) { return c.zvs == ZvsClass::kFull; };
+  for (size_t i = 0; i < nx; ++i) {
+    for (size_t j = 0; j < ny; ++j) {
+      const MapCell& c = at(i, j);
+      if (!c.measured) continue;
+      for (int dir = 0; dir < 2; ++dir) {
+        size_t ni = i + (dir == 0), nj = j + (dir == 1);
+        if (ni >= nx || nj >= ny || !at(ni, nj).measured) continue;
+        const MapCell& n = at(ni, nj);
+        double x1 = dir == 0 ? left(ni) : left(i), x2 = dir == 0 ? left(ni) : left(i) + cw;
+        double y1 = dir == 0 ? top(j) : top(j), y2 = dir == 0 ? top(j) + ch : top(j);
+        if (full(c) != full(n)) svg.Line(x1, y1, x2, y2, kBoundary, 3);
+        if (std::isfinite(c.predicted_full) && std::isfinite(n.predicted_full)) {
+          hand = true;
+          if ((c.predicted_full > 0.5) != (n.predicted_full > 0.5)) {
+            svg.Line(x1, y1, x2, y2, kHandBoundary, 2.5, true);
+          }
+        }
+      }
     }
   }
 
-  // Axes, tick labels and names.
+  // Axes, tick labels (every value while they fit) and names with units.
   svg.Line(kLeft, kTop + plot_h, kLeft + plot_w, kTop + plot_h, "#000000", 1);
   svg.Line(kLeft, kTop, kLeft, kTop + plot_h, "#000000", 1);
-  for (size_t i = 0; i < nx; i += TickStride(nx)) {
-    svg.Text(cell_x(i), kTop + plot_h + 18, Eng(xd.values[i]), "middle", 11);
+  for (size_t i = 0; i < nx; ++i) {
+    svg.Text(left(i) + cw / 2, kTop + plot_h + 18, DimValue(xd, xd.values[i]), "middle", 11);
   }
-  for (size_t j = 0; j < ny; j += TickStride(ny)) {
-    svg.Text(kLeft - 8, cell_y(j) + 4, Eng(yd.values[j]), "end", 11);
+  for (size_t j = 0; j < ny; ++j) {
+    svg.Text(kLeft - 8, top(j) + ch / 2 + 4, DimValue(yd, yd.values[j]), "end", 11);
   }
-  svg.Text(kLeft + plot_w / 2, kHeight - 20, DimLabel(xd), "middle", 13);
+  svg.Text(kLeft + plot_w / 2, kTop + plot_h + 42, DimLabel(xd), "middle", 13);
   svg.Text(28, kTop + plot_h / 2, DimLabel(yd), "middle", 13, -90);
-  svg.Text(kLeft + plot_w / 2, kHeight - 4,
-           "cell text: margin, " + margin.description +
-               (margin.unit.empty() ? "" : " [" + margin.unit + "]"),
-           "middle", 10);
-  Legend(&svg, kWidth - kRight + 16, kTop + 14);
+  svg.Text(kLeft + plot_w / 2, kTop + plot_h + 62,
+           "cell text: ZVS margin, " + AxisLabel(margin.description, margin_unit), "middle", 11);
+  MapLegend(&svg, kLeft + plot_w + 20, kTop + 14, cells, hand);
 
   Plot plot;
   plot.file = "map_" + Safe(key.cell) + "_" + Safe(key.edge);
@@ -197,8 +271,11 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
   std::string value_column = is_margin ? margin.column : column;
   std::string pred_column = value_column.empty() ? "" : value_column + "__pred";
 
+  std::string y_unit = is_margin ? (margin.column.empty() ? margin.unit : MetricUnit(margin.column))
+                                 : MetricUnit(column);
+  bool is_turn_on = column == "v_turn_on_v";
   struct Sample {
-    double x, y, pred;
+    double x, y, pred, limit;
     ZvsClass zvs;
     std::string tip;
   };
@@ -215,17 +292,17 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
     double y = is_margin ? MarginOf(*e, margin) : e->Get(column);
     double pred = pred_column.empty() ? std::nan("") : e->Get(pred_column);
     const Point& p = input.points[found->second];
-    samples.push_back({xd.values[i], y, pred, e->zvs,
+    samples.push_back({xd.values[i], y, pred, e->Get("v_residual_limit_v"), e->zvs,
                        "point " + std::to_string(p.index) + " (" + p.Describe() +
-                           "): " + ZvsClassName(e->zvs) + ", " + column + "=" + Eng(y)});
+                           "): " + ZvsClassName(e->zvs) + ", " + column + " = " +
+                           FormatQuantity(y, y_unit)});
   }
 
-  std::string y_label = is_margin ? "ZVS margin: " + margin.description +
-                                        (margin.unit.empty() ? "" : " [" + margin.unit + "]")
-                                  : column;
+  std::string y_label = AxisLabel(is_margin ? "ZVS margin: " + margin.description : column, y_unit);
   std::string slice = SliceText(grid, fixed, {dim});
+  std::string slice_title = SliceTitle(grid, fixed, {dim});
   std::string title = key.Label() + ": " + (is_margin ? "zvs_margin" : column) + " versus " +
-                      xd.param + (slice.empty() ? "" : " (" + slice + ")");
+                      xd.param + (slice_title.empty() ? "" : " (" + slice_title + ")");
   SvgCanvas svg(kWidth, kHeight, title);
   svg.Text(kWidth / 2, 24, title, "middle", 15);
   double plot_w = kWidth - kLeft - kRight, plot_h = kHeight - kTop - kBottom;
@@ -239,7 +316,7 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
   auto fx = [&](double v) { return log_x ? std::log10(v) : v; };
   double y_lo = std::numeric_limits<double>::infinity(), y_hi = -y_lo;
   for (const Sample& s : samples) {
-    for (double v : {s.y, s.pred}) {
+    for (double v : {s.y, s.pred, is_turn_on ? s.limit : s.y}) {
       if (!std::isfinite(v)) continue;
       y_lo = std::min(y_lo, v);
       y_hi = std::max(y_hi, v);
@@ -254,25 +331,37 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
   // Frame, ticks, zero line.
   svg.Line(kLeft, kTop + plot_h, kLeft + plot_w, kTop + plot_h, "#000000", 1);
   svg.Line(kLeft, kTop, kLeft, kTop + plot_h, "#000000", 1);
-  for (int k = 0; k <= 5; ++k) {
-    double v = y_lo + (y_hi - y_lo) * k / 5;
+  for (double v : NiceTicks(y_lo, y_hi, 7)) {
+    if (v < y_lo || v > y_hi) continue;
     svg.Line(kLeft, py(v), kLeft + plot_w, py(v), "#e0e0e0", 1);
-    svg.Text(kLeft - 6, py(v) + 4, Eng(v), "end", 11);
+    svg.Text(kLeft - 6, py(v) + 4, FormatQuantity(v, y_unit), "end", 11);
   }
   if (y_lo < 0 && y_hi > 0) svg.Line(kLeft, py(0), kLeft + plot_w, py(0), "#777777", 1, true);
-  for (size_t i = 0; i < xd.values.size(); i += TickStride(xd.values.size())) {
-    svg.Line(px(xd.values[i]), kTop + plot_h, px(xd.values[i]), kTop + plot_h + 5, "#000000", 1);
-    svg.Text(px(xd.values[i]), kTop + plot_h + 18, Eng(xd.values[i]), "middle", 11);
+  std::vector<double> x_ticks;
+  if (log_x) {
+    for (size_t i = 0; i < xd.values.size(); i += TickStride(xd.values.size())) {
+      x_ticks.push_back(xd.values[i]);
+    }
+  } else {
+    x_ticks = NiceTicks(x_lo, x_hi, 7);
+  }
+  for (double v : x_ticks) {
+    if (v < std::min(x_lo, x_hi) || v > std::max(x_lo, x_hi)) continue;
+    svg.Line(px(v), kTop + plot_h, px(v), kTop + plot_h + 5, "#000000", 1);
+    svg.Text(px(v), kTop + plot_h + 18, DimValue(xd, v), "middle", 11);
   }
   svg.Text(kLeft + plot_w / 2, kHeight - 16, DimLabel(xd) + (log_x ? " (log scale)" : ""), "middle",
            13);
   svg.Text(24, kTop + plot_h / 2, y_label, "middle", 12, -90);
 
-  std::vector<std::pair<double, double>> line, pred_line;
+  std::vector<std::pair<double, double>> line, pred_line, limit_line;
   for (const Sample& s : samples) {
     if (std::isfinite(s.y)) line.emplace_back(px(s.x), py(s.y));
     if (std::isfinite(s.pred)) pred_line.emplace_back(px(s.x), py(s.pred));
+    if (is_turn_on && std::isfinite(s.limit)) limit_line.emplace_back(px(s.x), py(s.limit));
   }
+  // The ZVS limit: at or below it the turn-on counts as full ZVS.
+  svg.Polyline(limit_line, kFull, 1.5);
   svg.Polyline(line, "#0072B2", 2);
   svg.Polyline(pred_line, "#CC79A7", 2, true);
   for (const Sample& s : samples) {
@@ -286,6 +375,11 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
     ly += 20;
     svg.Line(lx, ly - 4, lx + 18, ly - 4, "#CC79A7", 2, true);
     svg.Text(lx + 24, ly, "hand calculation", "start", 12);
+  }
+  if (limit_line.size() >= 2) {
+    ly += 20;
+    svg.Line(lx, ly - 4, lx + 18, ly - 4, kFull, 1.5);
+    svg.Text(lx + 24, ly, "ZVS limit", "start", 12);
   }
   ly += 26;
   const std::pair<const char*, const char*> items[] = {

@@ -7,6 +7,7 @@
 
 #include "core/atomic_file.h"
 #include "report/csv_writer.h"
+#include "report/deadtime_chart.h"
 #include "report/html_index.h"
 #include "report/junit_xml.h"
 #include "report/plots.h"
@@ -73,6 +74,7 @@ bool WriteReports(const ReportInput& input, const std::string& dir, ReportOutcom
   if (!WriteText(dir, "junit.xml", XmlText(junit), outcome, error)) return false;
 
   std::vector<Plot> plots = MakePlots(input);
+  for (Plot& p : DeadTimeCharts(input)) plots.push_back(std::move(p));
   for (const Plot& p : plots) {
     if (!WriteText(dir, p.file, p.svg, outcome, error)) return false;
   }

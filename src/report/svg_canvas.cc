@@ -66,6 +66,18 @@ void SvgCanvas::Polyline(const std::vector<std::pair<double, double>>& points,
   if (dashed) p.append_attribute("stroke-dasharray") = "6 4";
 }
 
+void SvgCanvas::Polygon(const std::vector<std::pair<double, double>>& points,
+                        const std::string& fill, double opacity) {
+  if (points.size() < 3) return;
+  std::string text;
+  for (const auto& [x, y] : points) text += Px(x) + "," + Px(y) + " ";
+  text.pop_back();
+  pugi::xml_node p = Add("polygon");
+  p.append_attribute("points") = text.c_str();
+  p.append_attribute("fill") = fill.c_str();
+  p.append_attribute("fill-opacity") = Px(opacity).c_str();
+}
+
 void SvgCanvas::Circle(double cx, double cy, double r, const std::string& fill,
                        const std::string& tooltip) {
   pugi::xml_node c = Add("circle");

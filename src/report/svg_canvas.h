@@ -24,6 +24,9 @@ class SvgCanvas {
   /// An open polyline through `points`.
   void Polyline(const std::vector<std::pair<double, double>>& points, const std::string& stroke,
                 double width, bool dashed = false);
+  /// A closed filled polygon through `points`, `opacity` in 0..1, no outline.
+  void Polygon(const std::vector<std::pair<double, double>>& points, const std::string& fill,
+               double opacity);
   /// A filled circle with a thin dark outline.
   void Circle(double cx, double cy, double r, const std::string& fill,
               const std::string& tooltip = "");

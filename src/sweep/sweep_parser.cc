@@ -720,13 +720,23 @@ std::vector<Diagnostic> CheckParamsKnown(const SweepSpec& spec,
                              [&](const std::string& k) { return Lower(k) == lower; });
     if (found) continue;
     std::string best = ClosestName(name, known);
+    // Else the three nearest by edit distance, so a guess ("deadtime") still
+    // shows the spelling the template uses ("td_lh").
+    std::vector<std::string> near(known.begin(), known.end());
+    std::stable_sort(near.begin(), near.end(), [&](const std::string& a, const std::string& b) {
+      return EditDistance(name, a) < EditDistance(name, b);
+    });
+    std::string listed;
+    for (size_t i = 0; i < near.size() && i < 3; ++i) {
+      listed += (i ? ", '" : "'") + near[i] + "'";
+    }
     Diagnostic d;
     d.where = where;
-    std::string declared;
-    for (const std::string& k : known) declared += (declared.empty() ? "" : ", ") + k;
     d.message = "unknown parameter '" + name + "' (the template declares no such .param" +
-                (best.empty() ? std::string() : "; did you mean '" + best + "'?") +
-                (declared.empty() ? "; it declares none" : "; declared: " + declared) + ")";
+                (!best.empty()    ? "; did you mean '" + best + "'?"
+                 : listed.empty() ? std::string()
+                                  : "; closest: " + listed) +
+                "; `zvsmap params " + spec.path + "` lists them all)";
     problems.push_back(std::move(d));
   }
   return problems;

@@ -2,6 +2,10 @@
 
 #include <gtest/gtest.h>
 
+#include <algorithm>
+#include <cmath>
+#include <regex>
+
 #include "report_fixture.h"
 
 namespace zvsmap {
@@ -43,11 +47,44 @@ TEST(PlotsTest, OneDimensionCurvesWithPrediction) {
   pugi::xml_document doc;
   pugi::xml_node svg = ParseSvg(von->svg, &doc);
   EXPECT_EQ(Count(svg, "circle"), 5 + 3);  // five points and three legend markers
-  EXPECT_EQ(Count(svg, "polyline"), 2);    // simulated and hand calculation
+  // Simulated, hand calculation (dashed) and the ZVS limit line.
+  EXPECT_EQ(Count(svg, "polyline"), 3);
+  int dashed = 0;
+  for (pugi::xml_node l : svg.children("polyline")) {
+    dashed += l.attribute("stroke-dasharray") ? 1 : 0;
+  }
+  EXPECT_EQ(dashed, 1);
   EXPECT_TRUE(svg.find_child_by_attribute("text", "text-anchor", "middle"));
-  bool has_label = false;
-  for (pugi::xml_node t : svg.children("text")) has_label |= std::string(t.text().get()) == "Iout";
-  EXPECT_TRUE(has_label);
+  // Units on both axes; ticks at 1-2-5 steps (common practice): the x axis
+  // 0..4 A shows 0 A, 1 A ... (or 0.5 A steps), never 0.667 A.
+  std::vector<std::string> texts;
+  for (pugi::xml_node t : svg.children("text")) texts.push_back(t.text().get());
+  auto has = [&](const std::string& x) {
+    return std::find(texts.begin(), texts.end(), x) != texts.end();
+  };
+  EXPECT_TRUE(has("Iout [A]"));
+  EXPECT_TRUE(has("v_turn_on_v [V]"));
+  EXPECT_TRUE(has("2 A"));
+  EXPECT_TRUE(has("ZVS limit"));
+}
+
+// A dimensionless margin is printed plainly, never with SI prefixes.
+TEST(PlotsTest, DimensionlessMarginTicksArePlainNumbers) {
+  auto s = MakeGrid(
+      {{"Iout", {0, 1, 2, 3, 4}}}, [](const auto& v) { return v[0] - 2.5; },
+      [](const auto& v) {
+        return std::vector<Metric>{{"zvs_energy_margin", (v[0] - 2) * 1e-4}};
+      });
+  std::vector<Plot> plots = MakePlots(s.Input());
+  ASSERT_FALSE(plots.empty());
+  ASSERT_EQ(plots[0].file, "curve_leg_high_on_zvs_margin.svg");
+  pugi::xml_document doc;
+  pugi::xml_node svg = ParseSvg(plots[0].svg, &doc);
+  for (pugi::xml_node t : svg.children("text")) {
+    std::string text = t.text().get();
+    // No number followed by a prefix letter ("-100u", "200 \u00b5").
+    EXPECT_FALSE(std::regex_search(text, std::regex("[0-9] ?(u|n|m|p|\u00b5)( |$)"))) << text;
+  }
 }
 
 TEST(PlotsTest, TwoDimensionMapWithBoundary) {
@@ -61,15 +98,38 @@ TEST(PlotsTest, TwoDimensionMapWithBoundary) {
   EXPECT_EQ(plots[0].file, "map_leg_high_on.svg");
   pugi::xml_document doc;
   pugi::xml_node svg = ParseSvg(plots[0].svg, &doc);
-  // Background + 18 cells + 5 legend swatches.
-  EXPECT_EQ(Count(svg, "rect"), 1 + 18 + 5);
-  // One boundary segment per row along Iout (three rows; the failed point in
-  // row 1 removes that row's crossing) plus any along L, drawn 3 px wide.
-  int thick = 0;
+  // Background, 18 cells and one legend swatch per class present: full,
+  // partial or hard by the margins, and the failed point.
+  std::vector<std::string> texts;
+  for (pugi::xml_node t : svg.children("text")) texts.push_back(t.text().get());
+  auto has = [&](const std::string& x) {
+    return std::find(texts.begin(), texts.end(), x) != texts.end();
+  };
+  EXPECT_TRUE(has("full ZVS"));
+  EXPECT_TRUE(has("did not run"));
+  EXPECT_FALSE(has("unknown"));
+  int swatches = has("full ZVS") + has("partial") + has("hard") + has("did not run");
+  EXPECT_EQ(Count(svg, "rect"), 1 + 18 + swatches);
+  EXPECT_TRUE(has("Iout [A]"));
+  EXPECT_TRUE(has("L [H]"));
+  EXPECT_TRUE(has("2 \u00b5H"));
+  // The boundary follows the colours: every 3 px segment but the legend's
+  // lies on a border between two cells (x or y on the cell lattice), and
+  // there is one per class change between measured neighbours.
+  pugi::xml_node first_cell = svg.child("rect").next_sibling("rect");
+  double x0 = first_cell.attribute("x").as_double(), y0 = first_cell.attribute("y").as_double();
+  double cw = first_cell.attribute("width").as_double();
+  double ch = first_cell.attribute("height").as_double();
+  int thick = 0, on_lattice = 0;
   for (pugi::xml_node l : svg.children("line")) {
-    thick += std::string(l.attribute("stroke-width").value()) == "3.00" ? 1 : 0;
+    if (std::string(l.attribute("stroke-width").value()) != "3.00") continue;
+    ++thick;
+    double x1 = l.attribute("x1").as_double(), y1 = l.attribute("y1").as_double();
+    double fx = (x1 - x0) / cw, fy = (y1 - y0) / ch;
+    on_lattice += std::fabs(fx - std::round(fx)) < 1e-3 && std::fabs(fy - std::round(fy)) < 1e-3;
   }
   EXPECT_GE(thick, 1 + 2);  // legend sample + at least the two intact rows
+  EXPECT_EQ(on_lattice, thick - 1);
   EXPECT_GT(plots[0].svg.size(), 1000u);
 }
 

@@ -190,7 +190,7 @@ const char kGoodNetlist[] =
 const char kRejectedNetlist[] =
     "rejected\nV1 in 0 DC 1\nR1 in out 1k\nC1 out 0 1n\n.tran 10n 2u\n.frobnicate\n.end\n";
 // An undefined parameter: the exit callback fires and the instance is
-// poisoned (NGSPICE_NOTES.md, measured with ngspice 39).
+// poisoned (observed with ngspice 39, see sim/ngspice_simulator.cc).
 const char kUndefinedParam[] =
     "undefined\nV1 in 0 DC 1\nR1 in out {rundefined}\nC1 out 0 1n IC=0\n"
     ".tran 10n 2u 0 10n uic\n.end\n";

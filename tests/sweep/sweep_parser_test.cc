@@ -187,7 +187,7 @@ TEST_F(SweepParserTest, ZvsResidual) {
   EXPECT_DOUBLE_EQ(spec.zvs.value, 0.5);
   spec = Parse(Sweep("  <zvs residual=\"10%\"/>\n"));
   EXPECT_EQ(spec.zvs.Describe(), "v_turn_on <= 10% of rail");
-  // The "10 % of the input voltage" convention, REFERENCES.md section 6 [common].
+  // The "10 % of the input voltage" convention, docs/references.md section 6 [common].
   EXPECT_DOUBLE_EQ(spec.zvs.Limit(48), 4.8);
   spec = Parse(Sweep("  <zvs residual=\"2.5%\"/>\n"));
   EXPECT_EQ(spec.zvs.Describe(), "v_turn_on <= 2.5% of rail");
@@ -579,10 +579,12 @@ TEST_F(SweepParserTest, CheckParamsKnown) {
   ASSERT_EQ(problems.size(), 2u);
   EXPECT_EQ(problems[0].Format(),
             "sweeps/demo.xml:4: unknown parameter 'Lout' (the template declares no such "
-            ".param; did you mean 'l_out'?; declared: vin, l_out, fsw)");
+            ".param; did you mean 'l_out'?; `zvsmap params sweeps/demo.xml` lists them all)");
+  // No name within the did-you-mean distance: the three nearest by edit
+  // distance (Levenshtein 1966: Dead-vin 4, Dead-fsw 4, Dead-l_out 5).
   EXPECT_EQ(problems[1].Format(),
             "sweeps/demo.xml:5: unknown parameter 'Dead' (the template declares no such .param; "
-            "declared: vin, l_out, fsw)");
+            "closest: 'vin', 'fsw', 'l_out'; `zvsmap params sweeps/demo.xml` lists them all)");
   EXPECT_TRUE(CheckParamsKnown(spec, {"VIN", "LOUT", "dead"}).empty());
 }
 
