@@ -239,7 +239,9 @@ std::string HtmlFailedPoints(const ReportInput& input) {
   for (size_t i = 0; i < input.results.size() && i < input.points.size(); ++i) {
     const PointResult& r = input.results[i];
     if (r.status == PointStatus::kOk) continue;
-    std::string aid = r.settle.method.empty() ? "-" : r.settle.method;
+    std::string aid = r.settle.method == SettleMethod::kNotAttempted
+                          ? "-"
+                          : SettleMethodName(r.settle.method);
     if (r.settle.periods > 0) aid += ", " + std::to_string(r.settle.periods) + " periods";
     rows += "<tr>" + Td(std::to_string(input.points[i].index)) + Td(input.points[i].Describe()) +
             Td(PointStatusName(r.status)) + Td(r.reason) + Td(aid) + "</tr>\n";
