@@ -8,6 +8,7 @@
 #include <set>
 #include <sstream>
 
+#include "core/data_dir.h"
 #include "core/text.h"
 
 namespace zvsmap {
@@ -120,9 +121,7 @@ std::vector<std::string> TemplateSubckts(const Template& tmpl) {
 
 }  // namespace
 
-std::string GenericLibraryPath() {
-  return std::string(ZVSMAP_SOURCE_DIR) + "/netlists/switches.lib";
-}
+std::string GenericLibraryPath() { return DataFile("netlists/switches.lib"); }
 
 bool ScanSubckts(const std::string& path, std::vector<SubcktInfo>* out, std::string* error) {
   out->clear();
