@@ -33,8 +33,7 @@ std::string DataDir(std::vector<std::string>* searched) {
   }
   std::filesystem::path exe_dir = ExecutableDir();
   if (!exe_dir.empty()) {
-    std::filesystem::path installed =
-        (exe_dir / ".." / "share" / "zvsmap").lexically_normal();
+    std::filesystem::path installed = (exe_dir / ".." / "share" / "zvsmap").lexically_normal();
     tried(installed.string());
     if (HasLibrary(installed)) return installed.string();
   }
