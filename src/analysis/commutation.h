@@ -5,9 +5,9 @@
 #include <vector>
 
 #include "analysis/edge_finder.h"
-#include "result/edge_metrics.h"
 #include "core/expression.h"
 #include "netlist/template.h"
+#include "result/edge_metrics.h"
 #include "sim/waveforms.h"
 #include "sweep/sweep_spec.h"
 

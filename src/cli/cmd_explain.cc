@@ -66,7 +66,7 @@ void AddExplainCommand(CLI::App& app, int* exit_code) {
     }
     std::printf("\nsimulating point %zu in ngspice...\n", point.index);
     std::fflush(stdout);
-    PointEvaluator evaluator(sweep.spec, sweep.tmpl);
+    PointEvaluator evaluator(sweep);
     NgspiceSimulator simulator;
     PointResult result = evaluator.Evaluate(point, simulator);
     if (result.status != PointStatus::kOk) {

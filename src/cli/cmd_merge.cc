@@ -89,7 +89,7 @@ int Merge(const Options& opts) {
     return kExitBadInput;
   }
 
-  PointEvaluator evaluator(sweep.spec, sweep.tmpl);
+  PointEvaluator evaluator(sweep);
   std::vector<std::string> hashes = PointContentHashes(sweep, evaluator);
   std::string identity = SweepIdentity(sweep.spec.path, sweep.spec.template_path);
   MergeReport merged;

@@ -36,7 +36,7 @@ void AddRenderCommand(CLI::App& app, int* exit_code) {
       *exit_code = kExitBadInput;
       return;
     }
-    PointEvaluator evaluator(sweep.spec, sweep.tmpl);
+    PointEvaluator evaluator(sweep);
     std::string netlist;
     Diagnostic error;
     if (!evaluator.Render(sweep.points[opts->point], &netlist, &error)) {

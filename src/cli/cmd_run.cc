@@ -201,7 +201,7 @@ int Run(const Options& opts) {
   }
 
   // Which points must run: those without a stored result for the same content.
-  PointEvaluator evaluator(sweep.spec, sweep.tmpl);
+  PointEvaluator evaluator(sweep);
   std::vector<std::string> hashes = PointContentHashes(sweep, evaluator);
   std::vector<StoredPointKey> stored;
   if (!RekeyStoredResults(*store, sweep.points, hashes, &error) ||

@@ -21,6 +21,7 @@
 #include "run/point_evaluator.h"
 #include "run/run_plan.h"
 #include "run/waveform_export.h"
+#include "run/worker_pool.h"
 #include "sim/ngspice_simulator.h"
 #include "store/run_store.h"
 #include "store/store_owner.h"
@@ -73,14 +74,15 @@ int ExportWaveformsInChild(const PreparedSweep& sweep, const std::vector<PointRe
   }
   if (unique.empty()) return kExitPointsFailed;
 
-  // Per point: the given limit, else the sweep's, else 20x the stored run's
-  // time (at least 60 s), else 300 s.
+  // Per point: the given limit, else the sweep's, else the pool's rule
+  // (DerivedTimeout) over the stored run's time, else 300 s.
   double total_s = 0;
   for (size_t i : unique) {
     double t = request.timeout_s > 0 ? request.timeout_s : sweep.spec.simulation.timeout_s;
     if (t <= 0) {
-      t = 300;
-      if (i < results.size() && results[i].wall_s > 0) t = std::max(60.0, 20 * results[i].wall_s);
+      std::vector<double> stored;
+      if (i < results.size() && results[i].wall_s > 0) stored.push_back(results[i].wall_s);
+      t = DerivedTimeout(stored);
     }
     total_s += t;
   }
@@ -179,7 +181,7 @@ int Waveforms(const Options& opts) {
                    error.c_str());
       return kExitBadInput;
     }
-    PointEvaluator evaluator(sweep.spec, sweep.tmpl);
+    PointEvaluator evaluator(sweep);
     if (!store ||
         !CollectStoredResults(*store, PointContentHashes(sweep, evaluator), &results, &error)) {
       std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());

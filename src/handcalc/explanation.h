@@ -5,10 +5,10 @@
 #include <string>
 #include <vector>
 
-#include "result/edge_metrics.h"
 #include "core/expression.h"
 #include "handcalc/hand_calculation.h"
 #include "netlist/template.h"
+#include "result/edge_metrics.h"
 
 namespace zvsmap {
 

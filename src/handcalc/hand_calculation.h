@@ -6,11 +6,11 @@
 #include <string>
 #include <vector>
 
-#include "result/edge_metrics.h"
 #include "core/diagnostic.h"
 #include "core/expression.h"
 #include "handcalc/topology_model.h"
 #include "netlist/template.h"
+#include "result/edge_metrics.h"
 #include "sweep/point.h"
 #include "sweep/sweep_spec.h"
 

@@ -8,10 +8,12 @@
 #include <set>
 #include <sstream>
 
+#include "core/data_dir.h"
 #include "core/spice_number.h"
 #include "core/text.h"
 #include "netlist/deck_rules.h"
 #include "netlist/include_closure.h"
+#include "result/edge_identity.h"
 
 namespace zvsmap {
 
@@ -121,11 +123,14 @@ std::vector<std::string> TemplateSubckts(const Template& tmpl) {
   return out;
 }
 
+// The template instance that plays `role` in its cell.
+const std::string& RoleInstance(const CellSpec& cell, const SwitchRole& role) {
+  return role.side == SwitchSide::kHigh ? cell.high : cell.low;
+}
+
 }  // namespace
 
-std::string GenericLibraryPath() {
-  return std::string(ZVSMAP_SOURCE_DIR) + "/netlists/switches.lib";
-}
+std::string GenericLibraryPath() { return DataFile("netlists/switches.lib"); }
 
 namespace {
 
@@ -397,13 +402,13 @@ bool ResolveSweepDevices(const SweepSpec& spec, const Template& tmpl,
   for (const AxisGroup& g : spec.groups) {
     for (const AxisSpec& a : g.axes) {
       for (const std::string& role : a.device_roles) {
-        size_t dot = role.rfind('.');
-        std::string cell_name = role.substr(0, dot), side = role.substr(dot + 1);
+        SwitchRole parsed_role;
+        ParseSwitchRole(role, &parsed_role);  // the sweep parser checked the spelling
+        const std::string& cell_name = parsed_role.cell;
+        const std::string side = SwitchSideName(parsed_role.side);
         auto cell = std::find_if(tmpl.cells.begin(), tmpl.cells.end(),
                                  [&](const CellSpec& c) { return c.name == cell_name; });
-        std::string instance = cell == tmpl.cells.end() ? ""
-                               : side == "high"         ? cell->high
-                                                        : cell->low;
+        std::string instance = cell == tmpl.cells.end() ? "" : RoleInstance(*cell, parsed_role);
         InstanceLine parsed;
         const std::string* line = instance.empty() ? nullptr : FindInstance(tmpl, instance);
         if (cell == tmpl.cells.end()) {
@@ -515,15 +520,15 @@ bool ApplyDevicesToDeck(const Template& tmpl, const std::vector<ResolvedDevice>&
     auto dev = std::find_if(devices.begin(), devices.end(), [&](const ResolvedDevice& d) {
       return Lower(d.spec.name) == Lower(name);
     });
-    size_t dot = role.rfind('.');
-    std::string cell_name = role.substr(0, dot), side = role.substr(dot + 1);
+    SwitchRole parsed_role;
+    bool role_ok = ParseSwitchRole(role, &parsed_role);
     auto cell = std::find_if(tmpl.cells.begin(), tmpl.cells.end(),
-                             [&](const CellSpec& c) { return c.name == cell_name; });
-    if (dev == devices.end() || cell == tmpl.cells.end()) {
+                             [&](const CellSpec& c) { return c.name == parsed_role.cell; });
+    if (dev == devices.end() || !role_ok || cell == tmpl.cells.end()) {
       *error = "unknown device '" + name + "' or role '" + role + "'";
       return false;
     }
-    std::string instance = side == "high" ? cell->high : cell->low;
+    std::string instance = RoleInstance(*cell, parsed_role);
     const std::string* line = FindInstance(tmpl, instance);
     InstanceLine parsed;
     if (!line || !SplitInstance(*line, &parsed)) {

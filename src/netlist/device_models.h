@@ -25,7 +25,8 @@ struct SubcktInfo {
   std::string text;                 ///< the block from .subckt to .ends, physical lines
 };
 
-/// The generic switch library shipped in netlists/.
+/// The generic switch library shipped in netlists/: DataFile("netlists/switches.lib")
+/// (installed copy, $ZVSMAP_DATA_DIR or the source tree; see core/data_dir.h).
 std::string GenericLibraryPath();
 
 /// Every subcircuit defined in `path` (nested .include files are not followed).

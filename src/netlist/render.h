@@ -16,9 +16,10 @@ namespace zvsmap {
 /// Every template parameter resolved to a number for one point: the point's
 /// values replace the defaults, then each declaration is evaluated in file
 /// order (so `D={Vout/Vin}` follows a swept Vout). Keys are lower-case.
-/// `extra` (e.g. settled initial conditions) overrides after the point.
-bool ResolveParams(const Template& tmpl, const std::vector<ParamValue>& values, Variables* resolved,
-                   Diagnostic* error);
+/// Fails (with file:line) when a value cannot be evaluated or the point sets a
+/// parameter the template does not declare.
+bool ResolveParams(const Template& tmpl, const std::vector<ParamValue>& values,
+                   Variables* resolved, Diagnostic* error);
 
 /// The switching period of a resolved point (the `*@ period` expression).
 bool ResolvePeriod(const Template& tmpl, const Variables& resolved, double* period_s,

@@ -15,30 +15,57 @@ std::vector<size_t> Grid::SweptDims() const {
   return out;
 }
 
+namespace {
+
+// A dimension per axis group: a device axis is labelled by its roles and its
+// values are the device indices (its names in `labels`).
+GridDim DimOf(const AxisGroup& group) {
+  GridDim dim;
+  const AxisSpec& first = group.axes.front();
+  dim.values = first.values;
+  if (!first.device_roles.empty()) {
+    for (const std::string& role : first.device_roles) {
+      dim.param += (dim.param.empty() ? "" : " ") + role;
+    }
+    dim.labels = first.device_names;
+  } else {
+    dim.param = first.param;
+  }
+  for (size_t k = 1; k < group.axes.size(); ++k) dim.also.push_back(group.axes[k].param);
+  return dim;
+}
+
+// The axis value closest to the point's value on `dim`, or -1 (hand-built
+// points without grid positions).
+int NearestValue(const Point& point, const GridDim& dim) {
+  std::optional<double> v = point.Get(dim.param);
+  int best = -1;
+  double best_distance = std::numeric_limits<double>::infinity();
+  for (size_t k = 0; v && k < dim.values.size(); ++k) {
+    double distance = std::fabs(dim.values[k] - *v);
+    if (distance < best_distance) {
+      best_distance = distance;
+      best = static_cast<int>(k);
+    }
+  }
+  return best;
+}
+
+}  // namespace
+
 Grid BuildGrid(const SweepSpec& spec, const std::vector<Point>& points) {
   Grid grid;
-  for (const AxisGroup& group : spec.groups) {
-    if (group.axes.empty()) continue;
-    GridDim dim;
-    dim.param = group.axes.front().param;
-    dim.values = group.axes.front().values;
-    for (size_t k = 1; k < group.axes.size(); ++k) dim.also.push_back(group.axes[k].param);
-    grid.dims.push_back(std::move(dim));
+  std::vector<size_t> group_of;  // the spec group of each dimension
+  for (size_t g = 0; g < spec.groups.size(); ++g) {
+    if (spec.groups[g].axes.empty()) continue;
+    grid.dims.push_back(DimOf(spec.groups[g]));
+    group_of.push_back(g);
   }
   for (const Point& point : points) {
     std::vector<int> c;
-    for (const GridDim& dim : grid.dims) {
-      std::optional<double> v = point.Get(dim.param);
-      int best = -1;
-      double best_distance = std::numeric_limits<double>::infinity();
-      for (size_t k = 0; v && k < dim.values.size(); ++k) {
-        double distance = std::fabs(dim.values[k] - *v);
-        if (distance < best_distance) {
-          best_distance = distance;
-          best = static_cast<int>(k);
-        }
-      }
-      c.push_back(best);
+    bool expanded = point.grid.size() == spec.groups.size();
+    for (size_t d = 0; d < grid.dims.size(); ++d) {
+      c.push_back(expanded ? point.grid[group_of[d]] : NearestValue(point, grid.dims[d]));
     }
     grid.coords.push_back(std::move(c));
   }
@@ -125,6 +152,7 @@ std::vector<Boundary> FindBoundaries(const Grid& grid, const std::vector<PointRe
   std::vector<Boundary> out;
   for (const auto& [coords, i] : at_coords) {
     for (size_t d = 0; d < grid.dims.size(); ++d) {
+      if (grid.dims[d].Categorical()) continue;  // no boundary between two devices
       const std::vector<double>& values = grid.dims[d].values;
       if (static_cast<size_t>(coords[d]) + 1 >= values.size()) continue;
       std::vector<int> next = coords;

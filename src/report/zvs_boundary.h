@@ -11,11 +11,16 @@
 namespace zvsmap {
 
 /// One grid dimension: a plain axis, or a lockstep group (labelled by its
-/// first axis; `also` names the others that move with it).
+/// first axis; `also` names the others that move with it), or a device axis
+/// (labelled by its switch roles, "leg.high leg.low"; values 0, 1, ... index
+/// `labels`, the device names).
 struct GridDim {
   std::string param;
   std::vector<std::string> also;
   std::vector<double> values;
+  std::vector<std::string> labels = {};
+  /// A device axis: its values name devices, not numbers.
+  bool Categorical() const { return !labels.empty(); }
 };
 
 /// A cell's edge as the reports group measurements ("leg", "high_on").
@@ -45,8 +50,9 @@ struct Grid {
   std::vector<size_t> SweptDims() const;
 };
 
-/// Builds the grid from the sweep's axis groups; a point's position on each
-/// dimension is the axis value closest to the point's value.
+/// Builds the grid from the sweep's axis groups. A point's position is the
+/// one it got from ExpandSweep (Point::grid); a point without one (built by
+/// hand) is placed at the axis value closest to its value.
 Grid BuildGrid(const SweepSpec& spec, const std::vector<Point>& points);
 
 /// Every (cell, edge) measured in `results`, in order of first appearance.
@@ -97,7 +103,8 @@ struct Boundary {
 };
 
 /// Every class change of `key` (full versus not full) between neighbouring
-/// points that both ran (status ok) and both measured the edge.
+/// points that both ran (status ok) and both measured the edge, along the
+/// numeric dimensions (not between two devices of a device axis).
 std::vector<Boundary> FindBoundaries(const Grid& grid, const std::vector<PointResult>& results,
                                      const EdgeKey& key, const MarginSource& margin);
 

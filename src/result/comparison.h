@@ -15,8 +15,8 @@ struct Comparison {
   std::string metric;  ///< the measured metric compared with, or "" (unpaired)
   std::string tag;     ///< "pred" (built-in model), the model's own tag, or the <predict> name
   double predicted = NAN;
-  double difference = NAN;           ///< simulated - predicted
-  double relative_difference = NAN;  ///< difference / |predicted|; NaN when predicted is 0
+  double difference = NAN;               ///< simulated - predicted
+  double relative_difference = NAN;      ///< difference / |predicted|; NaN when predicted is 0
   std::optional<bool> beyond_tolerance;  ///< empty when nothing was predicted
 
   bool Paired() const { return !metric.empty(); }

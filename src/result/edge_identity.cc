@@ -4,9 +4,7 @@
 
 namespace zvsmap {
 
-const char* EdgeKindName(EdgeKind kind) {
-  return kind == EdgeKind::kHighOn ? "high_on" : "low_on";
-}
+const char* EdgeKindName(EdgeKind kind) { return kind == EdgeKind::kHighOn ? "high_on" : "low_on"; }
 
 bool ParseEdgeKind(const std::string& name, EdgeKind* out) {
   for (EdgeKind k : kEdgeKinds) {

@@ -145,9 +145,10 @@ bool DecodeResult(const std::string& data, PointResult* out) {
   uint32_t edge_count = 0, state_count = 0;
   if (!r.U8(&format) || format != kFormat || !r.U64(&index) || !r.U8(&status) ||
       status > static_cast<uint8_t>(PointStatus::kNotRun) || !r.Str(&out->reason) ||
-      !r.Str(&out->log) || !r.U8(&method) || method > static_cast<uint8_t>(SettleMethod::kPeriods) ||
-      !r.I32(&iterations) || !r.I32(&periods) ||
-      !r.F64(&out->settle.residual) || !r.U32(&state_count) || state_count > kMaxCount) {
+      !r.Str(&out->log) || !r.U8(&method) ||
+      method > static_cast<uint8_t>(SettleMethod::kPeriods) || !r.I32(&iterations) ||
+      !r.I32(&periods) || !r.F64(&out->settle.residual) || !r.U32(&state_count) ||
+      state_count > kMaxCount) {
     return false;
   }
   out->settle.initial_state.clear();

@@ -20,6 +20,9 @@ PointEvaluator::PointEvaluator(const SweepSpec& spec, const Template& tmpl)
   if (!ResolveSweepDevices(spec_, tmpl_, &devices_, &errors)) devices_error_ = errors[0].Format();
 }
 
+PointEvaluator::PointEvaluator(const PreparedSweep& sweep)
+    : spec_(sweep.spec), tmpl_(sweep.tmpl), devices_(sweep.devices) {}
+
 bool PointEvaluator::RenderFor(const Point& point, const Variables& resolved,
                                const TranSettings& tran, Deck* deck, std::string* why) const {
   *deck = RenderDeck(tmpl_, resolved, tran, VectorsToSave(tmpl_));

@@ -8,6 +8,7 @@
 #include "netlist/render.h"
 #include "netlist/template.h"
 #include "result/point_result.h"
+#include "run/sweep_setup.h"
 #include "sim/simulator.h"
 #include "sweep/point.h"
 #include "sweep/sweep_spec.h"
@@ -21,6 +22,11 @@ class PointEvaluator {
   /// Reads the sweep's <device> model files (PrepareSweep has checked them;
   /// a device that fails here makes each point using it fail with the reason).
   PointEvaluator(const SweepSpec& spec, const Template& tmpl);
+
+  /// Evaluates the points of a prepared sweep with the device models
+  /// PrepareSweep resolved and checked (nothing is read again). `sweep` must
+  /// outlive the evaluator.
+  explicit PointEvaluator(const PreparedSweep& sweep);
 
   /// Renders the point's netlist as it will be simulated (also for the user
   /// to run in plain ngspice). Fails when a parameter cannot be evaluated.

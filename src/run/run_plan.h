@@ -5,8 +5,8 @@
 #include <string>
 #include <vector>
 
-#include "run/point_evaluator.h"
 #include "result/point_result.h"
+#include "run/point_evaluator.h"
 #include "run/sweep_setup.h"
 #include "store/run_store.h"
 

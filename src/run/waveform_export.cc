@@ -111,7 +111,7 @@ std::vector<WaveformExport> ExportWaveforms(const PreparedSweep& sweep,
   std::string dir = WaveformDir(out_dir);
   std::error_code ec;
   std::filesystem::create_directories(dir, ec);
-  PointEvaluator evaluator(sweep.spec, sweep.tmpl);
+  PointEvaluator evaluator(sweep);
   for (size_t index : indices) {
     WaveformExport item;
     item.index = index;

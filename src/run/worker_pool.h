@@ -25,7 +25,7 @@ using SimulatorFactory = std::function<std::unique_ptr<Simulator>()>;
 /// How the pool runs its workers.
 struct WorkerPoolOptions {
   int jobs = 0;                ///< worker processes; 0 = number of online CPUs
-  double timeout_s = 0;        ///< per-point wall-clock limit; 0 = derived (see EffectiveTimeout)
+  double timeout_s = 0;        ///< per-point wall-clock limit; 0 = derived (see DerivedTimeout)
   size_t recycle_after = 200;  ///< a worker is replaced after this many points; 0 = never
   /// Each worker's address-space bound in bytes (RLIMIT_AS, run/memory_bound.h);
   /// 0 = none. A point that runs into it fails with MemoryBoundReason.
@@ -45,7 +45,9 @@ struct WorkerPoolOptions {
 };
 
 /// Without a set timeout, until a point has finished: 300 s. Afterwards
-/// max(30 s, 20 x the longest of the first three finished points).
+/// max(30 s, 20 x the longest of the first three finished points). The one
+/// timeout rule: the waveform export (cmd_waveforms) applies it to the
+/// stored run's time of each point.
 double DerivedTimeout(const std::vector<double>& first_durations_s);
 
 /// What a Run did.

@@ -27,7 +27,9 @@ constexpr const char* kSchema =
     " PRIMARY KEY(point, edge, ord));"
     "CREATE TABLE IF NOT EXISTS comparisons(point INTEGER NOT NULL, edge INTEGER NOT NULL,"
     " ord INTEGER NOT NULL, metric TEXT NOT NULL, tag TEXT NOT NULL, predicted, difference,"
-    " relative_difference, beyond_tolerance, PRIMARY KEY(point, edge, ord));";
+    " relative_difference, beyond_tolerance, PRIMARY KEY(point, edge, ord));"
+    "CREATE TABLE IF NOT EXISTS settled_states(point INTEGER NOT NULL, ord INTEGER NOT NULL,"
+    " init_param TEXT NOT NULL, value, PRIMARY KEY(point, ord));";
 
 // A prepared statement that finalizes itself.
 class Statement {
@@ -266,11 +268,13 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
     Statement del_m(db_, "DELETE FROM metrics WHERE point = ?");
     Statement del_e(db_, "DELETE FROM edges WHERE point = ?");
     Statement del_c(db_, "DELETE FROM comparisons WHERE point = ?");
+    Statement del_s(db_, "DELETE FROM settled_states WHERE point = ?");
     del_m.Int(1, idx);
     del_e.Int(1, idx);
     del_c.Int(1, idx);
-    if (!del_m.ok() || !del_e.ok() || !del_c.ok() || del_m.Step() != SQLITE_DONE ||
-        del_e.Step() != SQLITE_DONE || del_c.Step() != SQLITE_DONE) {
+    del_s.Int(1, idx);
+    if (!del_m.ok() || !del_e.ok() || !del_c.ok() || !del_s.ok() || del_m.Step() != SQLITE_DONE ||
+        del_e.Step() != SQLITE_DONE || del_c.Step() != SQLITE_DONE || del_s.Step() != SQLITE_DONE) {
       return fail("delete");
     }
     Statement ins(
@@ -288,10 +292,21 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
     ins.Int(7, r.settle.iterations);
     ins.Int(8, r.settle.periods);
     ins.Double(9, r.settle.residual);
-    ins.Text(10, PairsText(r.settle.initial_state));
+    ins.Text(10, "");  // stores before the settled_states table kept the state here as text
     ins.Double(11, r.wall_s);
     ins.Text(12, r.log);
     if (ins.Step() != SQLITE_DONE) return fail("insert point");
+    Statement state(db_,
+                    "INSERT INTO settled_states(point, ord, init_param, value) VALUES(?,?,?,?)");
+    if (!state.ok()) return fail("prepare");
+    for (size_t k = 0; k < r.settle.initial_state.size(); ++k) {
+      state.Reset();
+      state.Int(1, idx);
+      state.Int(2, static_cast<long long>(k));
+      state.Text(3, r.settle.initial_state[k].init_param);
+      state.Double(4, r.settle.initial_state[k].value);
+      if (state.Step() != SQLITE_DONE) return fail("insert settled state");
+    }
 
     Statement edge(db_,
                    "INSERT INTO edges(point, ord, cell, edge, zvs, criterion) VALUES(?,?,?,?,?,?)");
@@ -351,7 +366,10 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
                         "SELECT point, edge, metric, tag, predicted, difference,"
                         " relative_difference, beyond_tolerance FROM comparisons"
                         " ORDER BY point, edge, ord");
-  if (!points.ok() || !edges.ok() || !metrics.ok() || !comparisons.ok()) return fail();
+  Statement states(db_, "SELECT point, init_param, value FROM settled_states ORDER BY point, ord");
+  if (!points.ok() || !edges.ok() || !metrics.ok() || !comparisons.ok() || !states.ok()) {
+    return fail();
+  }
   int rc;
   while ((rc = points.Step()) == SQLITE_ROW) {
     PointResult r;
@@ -366,6 +384,13 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
     r.wall_s = points.ColDouble(8);
     r.log = points.ColText(9);
     (*out)[r.index] = std::move(r);
+  }
+  if (rc != SQLITE_DONE) return fail();
+  while ((rc = states.Step()) == SQLITE_ROW) {
+    auto it = out->find(static_cast<size_t>(states.ColInt(0)));
+    if (it != out->end()) {
+      it->second.settle.initial_state.push_back({states.ColText(1), states.ColDouble(2)});
+    }
   }
   if (rc != SQLITE_DONE) return fail();
   while ((rc = edges.Step()) == SQLITE_ROW) {

@@ -25,7 +25,9 @@ struct StoredPointKey {
 
 /// Tables: meta(key, value); points(idx, params, content_hash, status,
 /// reason, settle_method, settle_iterations, settle_periods, settle_residual,
-/// settle_state ("name=value ..."), wall_s, log); edges(point, ord, cell, edge,
+/// settle_state (empty; stores from before settled_states held "name=value ..."
+/// text, still read), wall_s, log); settled_states(point, ord, init_param,
+/// value); edges(point, ord, cell, edge,
 /// zvs, criterion); metrics(point, edge, ord, column_name, value);
 /// comparisons(point, edge, ord, metric, tag, predicted, difference,
 /// relative_difference, beyond_tolerance 1/0/NULL). A field

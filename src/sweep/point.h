@@ -25,6 +25,10 @@ struct Point {
   /// Switch models chosen by device axes: (role "cell.high"/"cell.low",
   /// device name), in axis order. Empty: the template's own switches.
   std::vector<std::pair<std::string, std::string>> devices = {};
+  /// The point's position on the sweep's grid: one value index per axis
+  /// group of the SweepSpec (device axes included), as ExpandSweep made it.
+  /// Empty for a point built by hand (reports then place it by value).
+  std::vector<int> grid = {};
 
   /// The value of `name` (compared case-insensitively, as SPICE does), if this
   /// point sets it.

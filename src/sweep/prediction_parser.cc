@@ -10,6 +10,7 @@
 #include "core/expression.h"
 #include "core/spice_number.h"
 #include "core/text.h"
+#include "result/edge_identity.h"
 
 namespace zvsmap {
 
@@ -58,7 +59,8 @@ bool ParsePrediction(pugi::xml_node node, const SourceLocation& where,
   }
   if (out->expression.empty())
     return fail(node.attribute("expr") ? "expr" : nullptr, "<predict> needs a non-empty 'expr'");
-  if (!out->edge.empty() && out->edge != "high_on" && out->edge != "low_on") {
+  EdgeKind kind;
+  if (!out->edge.empty() && !ParseEdgeKind(out->edge, &kind)) {
     return fail("edge", "bad edge '" + out->edge + "' (use 'high_on' or 'low_on')");
   }
   if (!out->compare.empty() && out->edge.empty()) {

@@ -30,6 +30,7 @@ bool ExpandSweep(const SweepSpec& spec, std::vector<Point>* points, Diagnostic* 
     }
     Point p;
     p.index = index;
+    p.grid.assign(digit.begin(), digit.end());
     for (const FixedValue& f : spec.fixed) p.values.push_back({f.param, f.value});
     for (size_t g = 0; g < spec.groups.size(); ++g) {
       for (const AxisSpec& a : spec.groups[g].axes) {

@@ -11,6 +11,7 @@ namespace zvsmap {
 
 /// Expands the crossed grid (first group slowest), lockstep groups advancing
 /// together, fixed values first in each point, derived values evaluated last.
+/// Each point carries its grid position (Point::grid, one index per group).
 /// Fails (with the derived value's location) when an expression cannot be
 /// evaluated, or when the grid exceeds `spec.max_points`.
 bool ExpandSweep(const SweepSpec& spec, std::vector<Point>* points, Diagnostic* error);

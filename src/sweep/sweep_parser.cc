@@ -11,6 +11,7 @@
 
 #include "core/spice_number.h"
 #include "core/text.h"
+#include "result/edge_identity.h"
 #include "sweep/axis_values.h"
 #include "sweep/device_parser.h"
 #include "sweep/prediction_parser.h"
@@ -311,9 +312,8 @@ bool Parser::ParseDeviceAxis(pugi::xml_node node, AxisSpec* axis) {
   if (!Required(node, "device", &roles) || !Required(node, "values", &values)) return false;
   for (const std::string& role : SplitValueList(roles)) {
     std::string r = Lower(role);
-    size_t dot = r.rfind('.');
-    std::string side = dot == std::string::npos ? "" : r.substr(dot + 1);
-    if (dot == 0 || (side != "high" && side != "low")) {
+    SwitchRole parsed;
+    if (!ParseSwitchRole(r, &parsed)) {
       return FailAttr(node, "device",
                       "bad switch role '" + role + "' (use CELL.high or CELL.low, e.g. leg.high)");
     }

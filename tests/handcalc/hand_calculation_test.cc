@@ -10,8 +10,8 @@
 #include <cstdio>
 #include <fstream>
 
-#include "report/disagreement_summary.h"
 #include "netlist/render.h"
+#include "report/disagreement_summary.h"
 #include "sweep/sweep_parser.h"
 
 namespace zvsmap {

@@ -3,6 +3,7 @@
 #include <gtest/gtest.h>
 
 #include "report_fixture.h"
+#include "sweep/sweep_expand.h"
 
 namespace zvsmap {
 namespace {
@@ -88,6 +89,36 @@ TEST(ZvsBoundaryTest, MidpointWhenMarginsDoNotBracketZero) {
   ASSERT_EQ(b.size(), 1u);
   EXPECT_DOUBLE_EQ(b[0].value, 0.5);
   EXPECT_FALSE(b[0].interpolated);
+}
+
+// A device axis sets no parameter, so its points cannot be placed by value:
+// they keep the grid position ExpandSweep gave them. With one device the grid
+// is the plain one and the boundary stays where the linear margin puts it.
+// // common practice, no source (linear interpolation, as above)
+TEST(ZvsBoundaryTest, OneValueDeviceAxisKeepsTheBoundary) {
+  auto s = MakeGrid({{"x", {0, 1, 2, 3, 4, 5}}}, [](const auto& v) { return v[0] - 2.5; });
+  AxisGroup devices;
+  AxisSpec axis;
+  axis.device_roles = {"leg.high", "leg.low"};
+  axis.device_names = {"lin"};
+  axis.values = {0};
+  devices.axes.push_back(axis);
+  s.spec.groups.insert(s.spec.groups.begin(), devices);
+  std::vector<Point> expanded;
+  Diagnostic error;
+  ASSERT_TRUE(ExpandSweep(s.spec, &expanded, &error)) << error.Format();
+  ASSERT_EQ(expanded.size(), s.points.size());
+  Grid grid = BuildGrid(s.spec, expanded);
+  ASSERT_EQ(grid.dims.size(), 2u);
+  EXPECT_EQ(grid.dims[0].param, "leg.high leg.low");
+  EXPECT_TRUE(grid.dims[0].Categorical());
+  for (size_t i = 0; i < expanded.size(); ++i) {
+    EXPECT_EQ(grid.coords[i], (std::vector<int>{0, static_cast<int>(i)})) << i;
+  }
+  auto b = FindBoundaries(grid, s.results, {"leg", "high_on"}, ChooseMargin(s.results));
+  ASSERT_EQ(b.size(), 1u);
+  EXPECT_EQ(b[0].dim, 1u);
+  EXPECT_DOUBLE_EQ(b[0].value, 2.5);
 }
 
 }  // namespace

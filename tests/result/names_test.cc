@@ -13,8 +13,8 @@ namespace zvsmap {
 namespace {
 
 TEST(PointStatusTest, EveryNameReadsBackAsItsStatus) {
-  for (PointStatus s : {PointStatus::kOk, PointStatus::kFailed, PointStatus::kUnsettled,
-                        PointStatus::kNotRun}) {
+  for (PointStatus s :
+       {PointStatus::kOk, PointStatus::kFailed, PointStatus::kUnsettled, PointStatus::kNotRun}) {
     PointStatus back = PointStatus::kOk;
     ASSERT_TRUE(PointStatusFromName(PointStatusName(s), &back)) << PointStatusName(s);
     EXPECT_EQ(back, s);

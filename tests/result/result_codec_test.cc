@@ -18,8 +18,11 @@ PointResult Sample() {
   r.status = PointStatus::kOk;
   r.reason = "";
   r.log = std::string("binary\0log\n", 11);
-  r.settle = {
-      SettleMethod::kPeriods, 0, 62, std::numeric_limits<double>::quiet_NaN(), {{"il0", -4.25}, {"vc0", 11.9}}};
+  r.settle = {SettleMethod::kPeriods,
+              0,
+              62,
+              std::numeric_limits<double>::quiet_NaN(),
+              {{"il0", -4.25}, {"vc0", 11.9}}};
   r.wall_s = 0.1;
   r.edges.push_back({"leg",
                      "high_on",

@@ -35,8 +35,11 @@ PointResult FullResult() {
   r.status = PointStatus::kUnsettled;
   r.reason = "residual 3e-3 above 1e-3, \"quoted\", comma";
   r.log = "stdout line one\nstderr Error: something\n";
-  r.settle = {
-      SettleMethod::kShooting, 4, 17, 0.1 + 0.2, {{"il0", -4.0000000000000009}, {"vc0", -0.0}, {"x", 1e-300}}};
+  r.settle = {SettleMethod::kShooting,
+              4,
+              17,
+              0.1 + 0.2,
+              {{"il0", -4.0000000000000009}, {"vc0", -0.0}, {"x", 1e-300}}};
   r.wall_s = 1.0 / 3.0;
   EdgeMeasurement e1{"leg", "high_on", ZvsClass::kPartial, "v_turn_on <= 4.8 V", {}};
   e1.metrics = {{"rail_v", 48.000000000000007},
@@ -91,7 +94,8 @@ void ExpectSame(const PointResult& a, const PointResult& b) {
       const Comparison& y = b.edges[e].comparisons[k];
       EXPECT_EQ(x.metric, y.metric);
       EXPECT_EQ(x.tag, y.tag);
-      for (auto [u, v] : {std::pair{x.predicted, y.predicted}, {x.difference, y.difference},
+      for (auto [u, v] : {std::pair{x.predicted, y.predicted},
+                          {x.difference, y.difference},
                           {x.relative_difference, y.relative_difference}}) {
         EXPECT_TRUE(SameBits(u, v) || (std::isnan(u) && std::isnan(v))) << x.Name();
       }
