@@ -8,6 +8,7 @@
 #include "analysis/edge_finder.h"
 #include "core/spice_number.h"
 #include "handcalc/hand_calculation.h"
+#include "run/solver_ladder.h"
 #include "sim/steady_state.h"
 
 namespace zvsmap {
@@ -94,11 +95,21 @@ bool PointEvaluator::Render(const Point& point, std::string* netlist, Diagnostic
     *error = Diagnostic{{spec_.path, 0, 0}, why, {}};
     return false;
   }
+  // A fixed solver aid is part of what runs.
+  std::vector<const SolverAid*> rungs = SolverAidRungs(spec_.simulation.solver_aid);
+  if (rungs.size() == 1) *netlist = ApplySolverAid(*netlist, rungs[0], spec_.simulation.reltol, true);
   return true;
 }
 
 PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
                                      Waveforms* settled) const {
+  return RunSolverLadder(spec_.simulation, simulator, [&](AidedSimulator& aided) {
+    return EvaluateOnce(point, aided, settled);
+  });
+}
+
+PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& simulator,
+                                         Waveforms* settled) const {
   auto started = std::chrono::steady_clock::now();
   PointResult result;
   result.index = point.index;
@@ -182,6 +193,7 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
   int measured = std::max(2, sim.measure_periods);
   std::string why;
   std::vector<double> x = ss.state;
+  simulator.SetMeasuring(true);
   SimulationOutput out =
       RunFromState(simulator, render, vectors, states, period, measured, -1, &x, &why);
   result.settle.periods += measured;

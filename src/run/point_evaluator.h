@@ -9,6 +9,7 @@
 #include "netlist/template.h"
 #include "run/point_result.h"
 #include "sim/simulator.h"
+#include "sim/solver_aids.h"
 #include "sweep/point.h"
 #include "sweep/sweep_spec.h"
 
@@ -36,6 +37,10 @@ class PointEvaluator {
   TranSettings TranFor(const Variables& resolved, double period_s) const;
 
  private:
+  /// One attempt at the whole pipeline with `simulator`'s solver aid (the
+  /// ladder in Evaluate calls it once per rung).
+  PointResult EvaluateOnce(const Point& point, AidedSimulator& simulator,
+                           Waveforms* settled) const;
   /// RenderNetlist plus the point's switch models (ApplyDevices).
   bool RenderFor(const Point& point, const Variables& resolved, const TranSettings& tran,
                  std::string* netlist, std::string* why) const;

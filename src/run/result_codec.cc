@@ -6,7 +6,7 @@
 namespace zvsmap {
 namespace {
 
-constexpr uint8_t kFormat = 2;
+constexpr uint8_t kFormat = 3;
 // Upper bound for any count read back; a corrupt length must not make the
 // decoder reserve gigabytes.
 constexpr uint32_t kMaxCount = 1u << 24;
@@ -88,6 +88,7 @@ std::string EncodeResult(const PointResult& r) {
       w.F64(m.value);
     }
   }
+  w.Str(r.solver_aid);
   return w.Take();
 }
 
@@ -132,7 +133,7 @@ bool DecodeResult(const std::string& data, PointResult* out) {
     }
     out->edges.push_back(std::move(e));
   }
-  return r.AtEnd();
+  return r.Str(&out->solver_aid) && r.AtEnd();
 }
 
 }  // namespace zvsmap

@@ -1,6 +1,7 @@
 #include "run/sweep_setup.h"
 
 #include "handcalc/hand_calculation.h"
+#include "run/solver_ladder.h"
 #include "sweep/sweep_expand.h"
 #include "sweep/sweep_parser.h"
 
@@ -13,6 +14,7 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     errors->push_back(error);
     return false;
   }
+  if (!CheckSolverAidSetting(out->spec, errors)) return false;
   if (max_points_override > 0) out->spec.max_points = max_points_override;
   if (!LoadTemplate(out->spec.template_path, &out->tmpl, &error)) {
     errors->push_back(error);

@@ -24,7 +24,7 @@ struct StoredPointKey {
 
 /// Tables: meta(key, value); points(idx, params, content_hash, status,
 /// reason, settle_method, settle_iterations, settle_periods, settle_residual,
-/// settle_state ("name=value ..."), wall_s, log); edges(point, ord, cell, edge,
+/// settle_state ("name=value ..."), wall_s, log, solver_aid); edges(point, ord, cell, edge,
 /// zvs, criterion); metrics(point, edge, ord, column_name, value). A field
 /// added to PointResult goes into SavePoint and LoadResults (and the codec). Doubles are stored in
 /// untyped columns so they come back bit for bit (-0.0 too); NaN is stored as NULL and read back as
@@ -58,6 +58,8 @@ class RunStore {
  private:
   explicit RunStore(sqlite3* db) : db_(db) {}
   bool Exec(const char* sql, std::string* error);
+  /// Adds columns newer than the store file (solver_aid); false with the reason on failure.
+  bool AddMissingColumns(std::string* error);
   sqlite3* db_;
 };
 

@@ -431,7 +431,8 @@ bool Parser::ParseDerive(pugi::xml_node node) {
 bool Parser::ParseSimulation(pugi::xml_node node) {
   if (!Once(node) ||
       !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol", "timeout",
-                         "settle", "settle-tolerance", "max-newton", "max-periods"})) {
+                         "settle", "settle-tolerance", "max-newton", "max-periods",
+                         "solver-aid"})) {
     return false;
   }
   SimulationSettings& s = spec_->simulation;
@@ -467,6 +468,8 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
     if (!WholeNumber(node, "max-periods", 1, &n)) return false;
     s.max_periods = static_cast<int>(n);
   }
+  // Checked against the aid names in PrepareSweep (run/, which sees sim/).
+  if (node.attribute("solver-aid")) s.solver_aid = node.attribute("solver-aid").value();
   return true;
 }
 
