@@ -1,6 +1,7 @@
 #include "run/sweep_setup.h"
 
 #include "handcalc/hand_calculation.h"
+#include "netlist/wiring_checks.h"
 #include "run/solver_ladder.h"
 #include "sweep/sweep_expand.h"
 #include "sweep/sweep_parser.h"
@@ -26,6 +27,11 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     return false;
   }
   if (!ResolveSweepDevices(out->spec, out->tmpl, &out->devices, errors)) return false;
+  std::vector<Diagnostic> wiring = CheckWiring(out->tmpl, out->devices);
+  if (!wiring.empty()) {
+    errors->insert(errors->end(), wiring.begin(), wiring.end());
+    return false;
+  }
   if (!ExpandSweep(out->spec, &out->points, &error)) {
     errors->push_back(error);
     return false;
