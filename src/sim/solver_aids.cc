@@ -30,9 +30,10 @@ const std::vector<SolverAid> kAids = {
     // truncation-error test no longer chases near-zero currents.
     {"abstol", "absolute tolerances relaxed to abstol=1e-9 A, vntol=1e-5 V",
      "abstol=1e-9 vntol=1e-5", 1, true},
-    // The three above at once.
+    // The three above at once. Not automatic: it moved the 400 V
+    // superjunction buck's t_transition_s by 3.7 %.
     {"combined", "rshunt, gmin and abstol together",
-     "rshunt=1e11 gmin=1e-10 abstol=1e-9 vntol=1e-5", 1, true},
+     "rshunt=1e11 gmin=1e-10 abstol=1e-9 vntol=1e-5", 1, false},
     // Settling runs at ten times the requested reltol (at most 1e-3); the
     // measuring run keeps the requested one, so only the starting state moves.
     // Not automatic: it moved the boost case's v_turn_on_v by 1.2 %.
