@@ -82,6 +82,14 @@ void CheckInstance(const Template& tmpl, const CellSpec& cell, const std::string
   }
 }
 
+// "drain role" for "d" (and so on), or the node itself when no pin reaches it.
+std::string RoleWord(const std::string& role, const std::string& node) {
+  if (role == "d") return "drain role";
+  if (role == "g") return "gate role";
+  if (role == "s") return "source role";
+  return "internal node '" + node + "'";
+}
+
 // Logical lines of a subcircuit block ('+' continuations joined).
 std::vector<std::string> Logical(const std::string& text) {
   std::vector<std::string> out;
@@ -129,11 +137,8 @@ void CheckDevice(const ResolvedDevice& device, std::vector<Diagnostic>* out) {
       if (g == "d" || g == "s" || d == "g") {
         out->push_back(Diagnostic{
             where, name + ": the pin map ties transistor '" + t[0] + "' with its gate on the " +
-                       (g == "d"   ? "drain"
-                        : g == "s" ? "source"
-                                   : "gate") +
-                       " role and its drain on the " + (d.empty() ? "'" + t[1] + "'" : d) +
-                       " role (pins " + t[1] + " " + t[2] + " " + t[3] +
+                       RoleWord(g, t[2]) + " and its drain on the " + RoleWord(d, t[1]) +
+                       " (nodes " + t[1] + " " + t[2] + " " + t[3] +
                        "): gate and drain swapped? Map its gate pin to g and its drain pin to d"});
         return;
       }

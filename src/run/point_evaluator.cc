@@ -97,7 +97,9 @@ bool PointEvaluator::Render(const Point& point, std::string* netlist, Diagnostic
   }
   // A fixed solver aid is part of what runs.
   std::vector<const SolverAid*> rungs = SolverAidRungs(spec_.simulation.solver_aid);
-  if (rungs.size() == 1) *netlist = ApplySolverAid(*netlist, rungs[0], spec_.simulation.reltol, true);
+  if (rungs.size() == 1) {
+    *netlist = ApplySolverAid(*netlist, rungs[0], spec_.simulation.reltol, true);
+  }
   return true;
 }
 

@@ -39,8 +39,7 @@ class PointEvaluator {
  private:
   /// One attempt at the whole pipeline with `simulator`'s solver aid (the
   /// ladder in Evaluate calls it once per rung).
-  PointResult EvaluateOnce(const Point& point, AidedSimulator& simulator,
-                           Waveforms* settled) const;
+  PointResult EvaluateOnce(const Point& point, AidedSimulator& simulator, Waveforms* settled) const;
   /// RenderNetlist plus the point's switch models (ApplyDevices).
   bool RenderFor(const Point& point, const Variables& resolved, const TranSettings& tran,
                  std::string* netlist, std::string* why) const;

@@ -272,9 +272,10 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
     *error = std::string("run store: ") + sqlite3_errmsg(db_);
     return false;
   };
-  Statement points(db_,
-                   "SELECT idx, status, reason, settle_method, settle_iterations, settle_periods,"
-                   " settle_residual, settle_state, wall_s, log, solver_aid FROM points ORDER BY idx");
+  Statement points(
+      db_,
+      "SELECT idx, status, reason, settle_method, settle_iterations, settle_periods,"
+      " settle_residual, settle_state, wall_s, log, solver_aid FROM points ORDER BY idx");
   Statement edges(db_, "SELECT point, cell, edge, zvs, criterion FROM edges ORDER BY point, ord");
   Statement metrics(
       db_, "SELECT point, edge, column_name, value FROM metrics ORDER BY point, edge, ord");

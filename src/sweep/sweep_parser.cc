@@ -429,10 +429,9 @@ bool Parser::ParseDerive(pugi::xml_node node) {
 }
 
 bool Parser::ParseSimulation(pugi::xml_node node) {
-  if (!Once(node) ||
-      !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol", "timeout",
-                         "settle", "settle-tolerance", "max-newton", "max-periods",
-                         "solver-aid"})) {
+  if (!Once(node) || !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol",
+                                        "timeout", "settle", "settle-tolerance", "max-newton",
+                                        "max-periods", "solver-aid"})) {
     return false;
   }
   SimulationSettings& s = spec_->simulation;
