@@ -7,6 +7,7 @@
 #include "report/report_set.h"
 #include "run/progress.h"
 #include "run/run_plan.h"
+#include "run/solver_ladder.h"
 
 namespace zvsmap::cli {
 
@@ -31,6 +32,7 @@ int WriteReportsAndSummarize(const RunSummaryInput& in) {
   if (c.not_run > 0) std::fprintf(stderr, ", %zu not run", c.not_run);
   std::fprintf(stderr, " (%zu kept from the stored run); wall time %s\n", in.kept,
                FormatDuration(in.wall_s).c_str());
+  std::fprintf(stderr, "zvsmap: %s\n", DescribeSolverAidUse(results).c_str());
   if (report.requirements_total > 0) {
     std::fprintf(stderr, "zvsmap: requirements: %d of %d held\n",
                  report.requirements_total - report.requirements_failed,

@@ -70,7 +70,7 @@ void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
   for (const auto& r : roles) out << ',' << CsvField(r);
   out << ",cell,edge,zvs_class";
   for (const auto& m : metrics) out << ',' << CsvField(m);
-  out << ",status,reason,wall_time_s" << eol;
+  out << ",status,reason,solver_aid,wall_time_s" << eol;
 
   for (size_t i = 0; i < points.size() && i < results.size(); ++i) {
     const Point& point = points[i];
@@ -87,7 +87,7 @@ void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
     };
     auto suffix = [&] {
       out << ',' << PointStatusName(r.status) << ',' << CsvField(r.reason) << ','
-          << CsvNumber(r.wall_s) << eol;
+          << CsvField(r.solver_aid) << ',' << CsvNumber(r.wall_s) << eol;
     };
     if (r.edges.empty()) {
       prefix();

@@ -6,6 +6,7 @@
 #include <limits>
 
 #include "report/zvs_boundary.h"
+#include "run/solver_ladder.h"
 
 namespace zvsmap {
 
@@ -137,6 +138,26 @@ std::string XmlNumber(double value) {
   return buf;
 }
 
+namespace {
+
+// <solver-aids setting="auto" aided="N"><aid name="rshunt" points="2"/>...:
+// how many points needed each aid of the convergence ladder.
+void AddSolverAids(pugi::xml_node root, const std::string& setting,
+                   const std::vector<PointResult>& results) {
+  pugi::xml_node aids = root.append_child("solver-aids");
+  aids.append_attribute("setting") = setting.c_str();
+  int aided = 0;
+  for (const auto& [name, n] : CountSolverAids(results)) {
+    pugi::xml_node aid = aids.append_child("aid");
+    aid.append_attribute("name") = name.c_str();
+    aid.append_attribute("points") = n;
+    aided += n;
+  }
+  aids.append_attribute("aided") = aided;
+}
+
+}  // namespace
+
 void BuildSummaryXml(const ReportInput& input, const std::vector<RequirementVerdict>& verdicts,
                      pugi::xml_document* doc) {
   doc->reset();
@@ -161,6 +182,7 @@ void BuildSummaryXml(const ReportInput& input, const std::vector<RequirementVerd
   run.append_attribute("failed") = failed;
   run.append_attribute("unsettled") = unsettled;
   run.append_attribute("zvs-criterion") = input.spec.zvs.Describe().c_str();
+  AddSolverAids(root, input.spec.simulation.solver_aid, input.results);
 
   Grid grid = BuildGrid(input.spec, input.points);
   pugi::xml_node grid_node = root.append_child("grid");

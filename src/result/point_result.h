@@ -19,6 +19,9 @@ struct PointResult {
   std::string log;     ///< the simulator's messages, kept when the point failed
   std::vector<EdgeMeasurement> edges;
   SettleRecord settle;
+  /// The solver aid the point ran with (sim/solver_aids.h): "none", an aid's
+  /// name, or empty when no run succeeded.
+  std::string solver_aid;
   double wall_s = 0;   ///< wall-clock time spent on the point
 };
 

@@ -134,6 +134,7 @@ std::string EncodeResult(const PointResult& r) {
     w.U32(static_cast<uint32_t>(e.comparisons.size()));
     for (const auto& c : e.comparisons) EncodeComparison(c, &w);
   }
+  w.Str(r.solver_aid);
   return w.Take();
 }
 
@@ -169,7 +170,7 @@ bool DecodeResult(const std::string& data, PointResult* out) {
     if (!DecodeEdge(&r, &e)) return false;
     out->edges.push_back(std::move(e));
   }
-  return r.AtEnd();
+  return r.Str(&out->solver_aid) && r.AtEnd();
 }
 
 }  // namespace zvsmap

@@ -10,6 +10,7 @@
 #include "handcalc/hand_calculation.h"
 #include "result/edge_identity.h"
 #include "sim/engine_messages.h"
+#include "run/solver_ladder.h"
 #include "sim/steady_state.h"
 
 namespace zvsmap {
@@ -103,6 +104,11 @@ bool PointEvaluator::RenderPointDeck(const Point& point, Deck* deck, Diagnostic*
     *error = Diagnostic{{spec_.path, 0, 0}, why, {}};
     return false;
   }
+  // A fixed solver aid is part of what runs.
+  std::vector<const SolverAid*> rungs = SolverAidRungs(spec_.simulation.solver_aid);
+  if (rungs.size() == 1) {
+    *netlist = ApplySolverAid(*netlist, rungs[0], spec_.simulation.reltol, true);
+  }
   return true;
 }
 
@@ -115,6 +121,13 @@ bool PointEvaluator::Render(const Point& point, std::string* netlist, Diagnostic
 
 PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
                                      Waveforms* settled) const {
+  return RunSolverLadder(spec_.simulation, simulator, [&](AidedSimulator& aided) {
+    return EvaluateOnce(point, aided, settled);
+  });
+}
+
+PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& simulator,
+                                         Waveforms* settled) const {
   auto started = std::chrono::steady_clock::now();
   PointResult result;
   result.index = point.index;
@@ -204,6 +217,7 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
   int measured = std::max(2, sim.measure_periods);
   std::string why;
   std::vector<double> x = ss.state;
+  simulator.SetMeasuring(true);
   SimulationOutput out =
       RunFromState(simulator, render, vectors, states, period, measured, -1, &x, &why);
   result.settle.periods += measured;

@@ -10,6 +10,7 @@
 #include "result/point_result.h"
 #include "run/sweep_setup.h"
 #include "sim/simulator.h"
+#include "sim/solver_aids.h"
 #include "sweep/point.h"
 #include "sweep/sweep_spec.h"
 
@@ -45,6 +46,9 @@ class PointEvaluator {
   TranSettings TranFor(const Variables& resolved, double period_s) const;
 
  private:
+  /// One attempt at the whole pipeline with `simulator`'s solver aid (the
+  /// ladder in Evaluate calls it once per rung).
+  PointResult EvaluateOnce(const Point& point, AidedSimulator& simulator, Waveforms* settled) const;
   /// RenderDeck plus the point's switch models (ApplyDevicesToDeck).
   bool RenderFor(const Point& point, const Variables& resolved, const TranSettings& tran,
                  Deck* deck, std::string* why) const;

@@ -4,6 +4,8 @@
 #include "netlist/deck_names.h"
 #include "netlist/deck_rules.h"
 #include "run/sweep_checks.h"
+#include "netlist/wiring_checks.h"
+#include "run/solver_ladder.h"
 #include "sweep/sweep_expand.h"
 #include "sweep/sweep_parser.h"
 
@@ -16,6 +18,7 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     errors->push_back(error);
     return false;
   }
+  if (!CheckSolverAidSetting(out->spec, errors)) return false;
   if (max_points_override > 0) out->spec.max_points = max_points_override;
   std::string why;
   if (!CheckFileName(out->spec.template_path, &why)) {
@@ -33,6 +36,11 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
   }
   if (!ResolveSweepDevices(out->spec, out->tmpl, &out->devices, errors)) return false;
   if (!CheckDeckNames(out->tmpl, out->devices, errors)) return false;
+  std::vector<Diagnostic> wiring = CheckWiring(out->tmpl, out->devices);
+  if (!wiring.empty()) {
+    errors->insert(errors->end(), wiring.begin(), wiring.end());
+    return false;
+  }
   if (!ExpandSweep(out->spec, &out->points, &error)) {
     errors->push_back(error);
     return false;

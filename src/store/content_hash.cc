@@ -54,6 +54,8 @@ std::string PointContentHash(const std::string& canonical_deck, const SweepSpec&
                 s.settle_periods, s.measure_periods, s.max_step_s, s.reltol,
                 s.settle_method.c_str(), s.settle_tolerance, s.max_newton, s.max_periods);
   h = Fnv1a64(kSeparator + buf, h);
+  // The ladder setting, only when not the default (hashes of earlier runs stay valid).
+  if (s.solver_aid != "auto") h = Fnv1a64(kSeparator + "solver_aid=" + s.solver_aid, h);
   std::snprintf(buf, sizeof buf, "zvs=%d:%.17g",
                 spec.zvs.kind == ZvsCriterion::Kind::kAbsolute ? 0 : 1, spec.zvs.value);
   h = Fnv1a64(kSeparator + buf, h);

@@ -18,7 +18,7 @@ constexpr const char* kSchema =
     " content_hash TEXT NOT NULL, status TEXT NOT NULL, reason TEXT NOT NULL,"
     " settle_method TEXT NOT NULL, settle_iterations INTEGER NOT NULL,"
     " settle_periods INTEGER NOT NULL, settle_residual, settle_state TEXT NOT NULL, wall_s,"
-    " log TEXT NOT NULL);"
+    " log TEXT NOT NULL, solver_aid TEXT NOT NULL DEFAULT '');"
     "CREATE TABLE IF NOT EXISTS edges(point INTEGER NOT NULL, ord INTEGER NOT NULL,"
     " cell TEXT NOT NULL, edge TEXT NOT NULL, zvs TEXT NOT NULL, criterion TEXT NOT NULL,"
     " PRIMARY KEY(point, ord));"
@@ -175,7 +175,7 @@ std::unique_ptr<RunStore> RunStore::Open(const std::string& path, std::string* e
   // committed. synchronous=NORMAL is durable against process death (not
   // against power loss of the last commits), which is what a rerun needs.
   if (!store->Exec("PRAGMA journal_mode=WAL; PRAGMA synchronous=NORMAL;", &why) ||
-      !store->Exec(kSchema, &why)) {
+      !store->Exec(kSchema, &why) || !store->AddMissingColumns(&why)) {
     *error = store->Where("not a usable run store: " + why);
     return nullptr;
   }
@@ -194,7 +194,8 @@ std::string RunStore::Where(const std::string& message) const {
 
 bool RunStore::DeleteAllPoints(std::string* error) {
   std::string why;
-  if (!Exec("BEGIN IMMEDIATE; DELETE FROM metrics; DELETE FROM edges; DELETE FROM points; COMMIT;",
+  if (!Exec("BEGIN IMMEDIATE; DELETE FROM comparisons; DELETE FROM metrics; DELETE FROM edges; "
+            "DELETE FROM settled_states; DELETE FROM points; COMMIT;",
             &why)) {
     std::string ignored;
     Exec("ROLLBACK", &ignored);
@@ -202,6 +203,13 @@ bool RunStore::DeleteAllPoints(std::string* error) {
     return false;
   }
   return true;
+}
+
+bool RunStore::AddMissingColumns(std::string* error) {
+  // A store written before the solver-aid column existed gets it (empty).
+  Statement probe(db_, "SELECT solver_aid FROM points LIMIT 0");
+  if (probe.ok()) return true;
+  return Exec("ALTER TABLE points ADD COLUMN solver_aid TEXT NOT NULL DEFAULT ''", error);
 }
 
 bool RunStore::Exec(const char* sql, std::string* error) {
@@ -281,7 +289,7 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
         db_,
         "INSERT OR REPLACE INTO points(idx, params, content_hash, status, reason,"
         " settle_method, settle_iterations, settle_periods, settle_residual, settle_state,"
-        " wall_s, log) VALUES(?,?,?,?,?,?,?,?,?,?,?,?)");
+        " wall_s, log, solver_aid) VALUES(?,?,?,?,?,?,?,?,?,?,?,?,?)");
     if (!ins.ok()) return fail("prepare");
     ins.Int(1, idx);
     ins.Text(2, ParamsText(point));
@@ -295,6 +303,7 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
     ins.Text(10, "");  // stores before the settled_states table kept the state here as text
     ins.Double(11, r.wall_s);
     ins.Text(12, r.log);
+    ins.Text(13, r.solver_aid);
     if (ins.Step() != SQLITE_DONE) return fail("insert point");
     Statement state(db_,
                     "INSERT INTO settled_states(point, ord, init_param, value) VALUES(?,?,?,?)");
@@ -356,9 +365,10 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
     *error = Where(sqlite3_errmsg(db_));
     return false;
   };
-  Statement points(db_,
-                   "SELECT idx, status, reason, settle_method, settle_iterations, settle_periods,"
-                   " settle_residual, settle_state, wall_s, log FROM points ORDER BY idx");
+  Statement points(
+      db_,
+      "SELECT idx, status, reason, settle_method, settle_iterations, settle_periods,"
+      " settle_residual, settle_state, wall_s, log, solver_aid FROM points ORDER BY idx");
   Statement edges(db_, "SELECT point, cell, edge, zvs, criterion FROM edges ORDER BY point, ord");
   Statement metrics(
       db_, "SELECT point, edge, column_name, value FROM metrics ORDER BY point, edge, ord");
@@ -383,6 +393,7 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
     r.settle.initial_state = ParsePairs(points.ColText(7));
     r.wall_s = points.ColDouble(8);
     r.log = points.ColText(9);
+    r.solver_aid = points.ColText(10);
     (*out)[r.index] = std::move(r);
   }
   if (rc != SQLITE_DONE) return fail();

@@ -26,7 +26,7 @@ struct StoredPointKey {
 /// Tables: meta(key, value); points(idx, params, content_hash, status,
 /// reason, settle_method, settle_iterations, settle_periods, settle_residual,
 /// settle_state (empty; stores from before settled_states held "name=value ..."
-/// text, still read), wall_s, log); settled_states(point, ord, init_param,
+/// text, still read), wall_s, log, solver_aid); settled_states(point, ord, init_param,
 /// value); edges(point, ord, cell, edge,
 /// zvs, criterion); metrics(point, edge, ord, column_name, value);
 /// comparisons(point, edge, ord, metric, tag, predicted, difference,
@@ -69,6 +69,8 @@ class RunStore {
   bool Exec(const char* sql, std::string* error);
   /// "PATH: message (OS reason)": every error names the store file.
   std::string Where(const std::string& message) const;
+  /// Adds columns newer than the store file (solver_aid); false with the reason on failure.
+  bool AddMissingColumns(std::string* error);
   sqlite3* db_;
   std::string path_;
 };

@@ -466,9 +466,9 @@ bool Parser::ParseDerive(pugi::xml_node node) {
 }
 
 bool Parser::ParseSimulation(pugi::xml_node node) {
-  if (!Once(node) ||
-      !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol", "timeout",
-                         "settle", "settle-tolerance", "max-newton", "max-periods"})) {
+  if (!Once(node) || !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol",
+                                        "timeout", "settle", "settle-tolerance", "max-newton",
+                                        "max-periods", "solver-aid"})) {
     return false;
   }
   SimulationSettings& s = spec_->simulation;
@@ -548,6 +548,8 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
                         ") is more than 'max-periods' (" + std::to_string(s.max_periods) +
                         "): settling stops after max-periods periods");
   }
+  // Checked against the aid names in PrepareSweep (run/, which sees sim/).
+  if (node.attribute("solver-aid")) s.solver_aid = node.attribute("solver-aid").value();
   return true;
 }
 

@@ -66,6 +66,9 @@ struct SimulationSettings {
   double settle_tolerance = 1e-3;  ///< relative to each state's ripple (floors 1 mA / 1 mV)
   int max_newton = 8;              ///< Newton iterations before falling back
   int max_periods = 1000;          ///< periods simulated in all while settling
+  /// The convergence ladder (sim/solver_aids.h): "auto" (retry a stiff
+  /// failure with each automatic aid), "off", or one aid's name (every run).
+  std::string solver_aid = "auto";
   SourceLocation where;
 };
 

@@ -90,6 +90,70 @@ TEST_F(SwitchModelsTest, JunctionChargeAndEnergyMatchTheClosedForms) {
   }
 }
 
+// zsw_vdmos (netlists/switches.lib): with the gate at the source, Coss is the
+// reverse diode's junction capacitance (closed forms above, REFERENCES.md
+// sec. 6) plus ngspice's VDMOS gate-drain capacitance
+//   Cgd(V) = y - s*atan(a*V),  s = (Cmax - Cmin)/(1 + pi/2),  y = Cmax - s
+// (ngspice 39 source, devsup.c DevCapVDMOS, vgd = -V), integrated in closed form:
+//   Qgd(V) = y*V - s*(V*atan(a*V) - ln(1 + (a*V)^2)/(2a))
+//   Egd(V) = y*V^2/2 - s*(((a*V)^2 + 1)*atan(a*V) - a*V)/(2a^2)   [derived].
+double MillerQ(double cmax, double cmin, double a, double v) {
+  double s = (cmax - cmin) / (1 + M_PI / 2), y = cmax - s;
+  return y * v - s * (v * std::atan(a * v) - std::log(1 + a * a * v * v) / (2 * a));
+}
+double MillerE(double cmax, double cmin, double a, double v) {
+  double s = (cmax - cmin) / (1 + M_PI / 2), y = cmax - s;
+  return y * v * v / 2 - s * ((a * a * v * v + 1) * std::atan(a * v) - a * v) / (2 * a * a);
+}
+
+TEST_F(SwitchModelsTest, VdmosSwitchChargeAndEnergyMatchJunctionPlusMillerClosedForms) {
+  // The library defaults of zsw_vdmos (invented): c0 3 nF, vj 0.8 V, m 0.5;
+  // Cgd 1 nF .. 40 pF, a 0.3 /V.
+  const double c0 = 3e-9, vj = 0.8, m = 0.5, cmax = 1e-9, cmin = 40e-12, a = 0.3;
+  ResolvedDevice device = Generic("zsw_vdmos", "");
+  CharacterizeOptions options;
+  options.v_max_v = 100;
+  options.table_rows = 5;
+  options.reverse_rows = 2;
+  Characterization table;
+  std::string error;
+  ASSERT_TRUE(CharacterizeSwitch(SharedNgspice(), device, options, &table, &error)) << error;
+  ASSERT_EQ(table.coss.size(), 5u);
+  for (const CossRow& row : table.coss) {
+    double v = row.v_v;
+    double q = JunctionQ(c0, vj, m, v) + MillerQ(cmax, cmin, a, v);
+    double e = JunctionE(c0, vj, m, v) + MillerE(cmax, cmin, a, v);
+    EXPECT_NEAR(row.q_c, q, 0.01 * q) << "Qoss at " << v << " V";  // closed forms above
+    EXPECT_NEAR(row.e_j, e, 0.01 * e) << "Eoss at " << v << " V";  // closed forms above
+    if (v < options.v_max_v) {
+      // Small-signal Coss; at the ramp's turning point the up/down difference
+      // is not defined, so the last row is not compared.
+      double c = c0 / std::pow(1 + v / vj, m) + (cmax - (cmax - cmin) / (1 + M_PI / 2)) -
+                 (cmax - cmin) / (1 + M_PI / 2) * std::atan(a * v);
+      EXPECT_NEAR(row.c_f, c, 0.02 * c) << "Coss at " << v << " V";
+    }
+  }
+}
+
+// sweeps/demo_buck_gatedrive.xml: zsw_vdmos driven through a gate
+// resistance. Every point runs at the default settings, and the soft low-side
+// transition (the node swung by the inductor current during the dead time
+// while the outgoing gate discharges through Rg) takes longer with the larger
+// Rg: the turn-off of the outgoing switch is an RC discharge of its gate
+// through Rg, so a larger Rg leaves its channel conducting longer (common
+// practice).
+TEST_F(SwitchModelsTest, GateDriveDemoRunsEveryPointAndRgSlowsTheSoftEdge) {
+  PreparedSweep sweep;
+  std::vector<PointResult> r = RunSweep("sweeps/demo_buck_gatedrive.xml", &sweep);
+  ASSERT_EQ(r.size(), 4u);
+  for (const PointResult& p : r) ASSERT_EQ(p.status, PointStatus::kOk) << p.reason;
+  // Points: (Rg, Iout) = (1, 0), (1, 8), (4.7, 0), (4.7, 8).
+  double fast = EdgeOf(r[1], "low_on").Get("t_transition_s");
+  double slow = EdgeOf(r[3], "low_on").Get("t_transition_s");
+  EXPECT_GT(fast, 0);
+  EXPECT_GT(slow, 1.5 * fast);
+}
+
 TEST_F(SwitchModelsTest, SubcircuitWithoutChannelProbeIsWrappedAndMeasured) {
   // tests/netlist/fixtures/reordered_switch.lib plain_sw: 1 nF linear, 1 Meg leakage.
   // Linear capacitor: Q = C V, E = C V^2 / 2 (textbook); the leakage must cancel.

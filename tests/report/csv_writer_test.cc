@@ -34,16 +34,18 @@ TEST(CsvWriterTest, OneRowPerEdgeAndOneForAFailedPoint) {
   e.zvs = ZvsClass::kHard;
   e.metrics = {{"v_turn_on_v", 48}};
   results[0].edges.push_back(e);
+  results[0].solver_aid = "rshunt";
   results[1].index = 1;
   results[1].status = PointStatus::kFailed;
   results[1].reason = "engine error: Timestep too small, at t=1e-6";
   std::ostringstream out;
   WriteEdgesCsv(out, points, results);
   EXPECT_EQ(out.str(),
-            "point,Iout,L,cell,edge,zvs_class,v_turn_on_v,t_transition_s,status,reason,wall_time_s\r\n"
-            "0,1,1e-06,leg,high_on,full,-0.5,2e-08,ok,,0\r\n"
-            "0,1,1e-06,leg,low_on,hard,48,,ok,,0\r\n"
-            "1,2,1e-06,,,,,,failed,\"engine error: Timestep too small, at t=1e-6\",0\r\n");
+            "point,Iout,L,cell,edge,zvs_class,v_turn_on_v,t_transition_s,status,reason,solver_aid,"
+            "wall_time_s\r\n"
+            "0,1,1e-06,leg,high_on,full,-0.5,2e-08,ok,,rshunt,0\r\n"
+            "0,1,1e-06,leg,low_on,hard,48,,ok,,rshunt,0\r\n"
+            "1,2,1e-06,,,,,,failed,\"engine error: Timestep too small, at t=1e-6\",,0\r\n");
 }
 
 }  // namespace

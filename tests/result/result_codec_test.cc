@@ -24,6 +24,7 @@ PointResult Sample() {
               std::numeric_limits<double>::quiet_NaN(),
               {{"il0", -4.25}, {"vc0", 11.9}}};
   r.wall_s = 0.1;
+  r.solver_aid = "settle-reltol";
   r.edges.push_back({"leg",
                      "high_on",
                      ZvsClass::kHard,
@@ -48,6 +49,7 @@ TEST(ResultCodecTest, EveryFieldRoundTripsBitForBit) {
   EXPECT_EQ(out.settle.periods, 62);
   EXPECT_TRUE(std::isnan(out.settle.residual));
   EXPECT_TRUE(SameBits(out.wall_s, 0.1));
+  EXPECT_EQ(out.solver_aid, "settle-reltol");
   EXPECT_EQ(out.settle.initial_state, in.settle.initial_state);
   EXPECT_EQ(out.edges[0].criterion, "v_turn_on <= 10% of rail");
   ASSERT_EQ(out.edges.size(), 2u);

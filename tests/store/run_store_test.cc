@@ -41,6 +41,7 @@ PointResult FullResult() {
               0.1 + 0.2,
               {{"il0", -4.0000000000000009}, {"vc0", -0.0}, {"x", 1e-300}}};
   r.wall_s = 1.0 / 3.0;
+  r.solver_aid = "rshunt";
   EdgeMeasurement e1{"leg", "high_on", ZvsClass::kPartial, "v_turn_on <= 4.8 V", {}};
   e1.metrics = {{"rail_v", 48.000000000000007},
                 {"i_commutated_a", -4.0000000000000009},
@@ -68,6 +69,7 @@ void ExpectSame(const PointResult& a, const PointResult& b) {
   EXPECT_TRUE(SameBits(a.settle.residual, b.settle.residual) ||
               (std::isnan(a.settle.residual) && std::isnan(b.settle.residual)));
   EXPECT_TRUE(SameBits(a.wall_s, b.wall_s));
+  EXPECT_EQ(a.solver_aid, b.solver_aid);
   ASSERT_EQ(a.settle.initial_state.size(), b.settle.initial_state.size());
   for (size_t i = 0; i < a.settle.initial_state.size(); ++i) {
     EXPECT_EQ(a.settle.initial_state[i].init_param, b.settle.initial_state[i].init_param);

@@ -1,0 +1,68 @@
+#include "run/solver_ladder.h"
+
+#include <string>
+
+namespace zvsmap {
+
+PointResult RunSolverLadder(const SimulationSettings& sim, Simulator& simulator,
+                            const PointAttempt& attempt) {
+  std::vector<const SolverAid*> rungs = SolverAidRungs(sim.solver_aid);
+  if (rungs.empty()) rungs.push_back(nullptr);
+  PointResult first;
+  double wall_s = 0;
+  std::string tried;
+  for (size_t k = 0; k < rungs.size(); ++k) {
+    AidedSimulator aided(simulator, rungs[k], sim.reltol);
+    PointResult r = attempt(aided);
+    wall_s += r.wall_s;
+    bool stiff = r.status == PointStatus::kFailed && IsStiffFailure(r.reason);
+    if (!stiff) {
+      if (r.status != PointStatus::kFailed) r.solver_aid = SolverAidName(rungs[k]);
+      r.wall_s = wall_s;
+      return r;
+    }
+    if (k == 0) {
+      first = std::move(r);
+    } else {
+      tried += (tried.empty() ? "" : ", ") + SolverAidName(rungs[k]);
+    }
+    if (aided.poisoned()) break;
+  }
+  if (!tried.empty()) first.reason += " (solver aids tried, each failed too: " + tried + ")";
+  first.solver_aid.clear();
+  first.wall_s = wall_s;
+  return first;
+}
+
+std::vector<std::pair<std::string, int>> CountSolverAids(const std::vector<PointResult>& results) {
+  std::vector<std::pair<std::string, int>> counts;
+  for (const SolverAid& aid : SolverAids()) {
+    int n = 0;
+    for (const PointResult& r : results) n += r.solver_aid == aid.name ? 1 : 0;
+    if (n > 0) counts.emplace_back(aid.name, n);
+  }
+  return counts;
+}
+
+std::string DescribeSolverAidUse(const std::vector<PointResult>& results) {
+  std::vector<std::pair<std::string, int>> counts = CountSolverAids(results);
+  if (counts.empty()) return "no point needed a solver aid";
+  int total = 0;
+  std::string list;
+  for (const auto& [name, n] : counts) {
+    total += n;
+    list += (list.empty() ? "" : ", ") + name + " " + std::to_string(n);
+  }
+  return std::to_string(total) + " of " + std::to_string(results.size()) +
+         " points ran with a solver aid (" + list + ")";
+}
+
+bool CheckSolverAidSetting(const SweepSpec& spec, std::vector<Diagnostic>* errors) {
+  if (!SolverAidRungs(spec.simulation.solver_aid).empty()) return true;
+  errors->push_back(
+      Diagnostic{spec.simulation.where, "<simulation solver-aid=\"" + spec.simulation.solver_aid +
+                                            "\">: must be one of " + SolverAidChoices()});
+  return false;
+}
+
+}  // namespace zvsmap
