@@ -104,11 +104,6 @@ bool PointEvaluator::RenderPointDeck(const Point& point, Deck* deck, Diagnostic*
     *error = Diagnostic{{spec_.path, 0, 0}, why, {}};
     return false;
   }
-  // A fixed solver aid is part of what runs.
-  std::vector<const SolverAid*> rungs = SolverAidRungs(spec_.simulation.solver_aid);
-  if (rungs.size() == 1) {
-    *netlist = ApplySolverAid(*netlist, rungs[0], spec_.simulation.reltol, true);
-  }
   return true;
 }
 
@@ -116,6 +111,11 @@ bool PointEvaluator::Render(const Point& point, std::string* netlist, Diagnostic
   Deck deck;
   if (!RenderPointDeck(point, &deck, error)) return false;
   *netlist = deck.Text();
+  // A fixed solver aid is part of what runs (its setting is in the content hash).
+  std::vector<const SolverAid*> rungs = SolverAidRungs(spec_.simulation.solver_aid);
+  if (rungs.size() == 1) {
+    *netlist = ApplySolverAid(*netlist, rungs[0], spec_.simulation.reltol, true);
+  }
   return true;
 }
 

@@ -9,7 +9,7 @@
 #include <vector>
 
 #include "core/diagnostic.h"
-#include "run/point_result.h"
+#include "result/point_result.h"
 #include "sim/solver_aids.h"
 #include "sweep/sweep_spec.h"
 
