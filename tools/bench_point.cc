@@ -27,9 +27,11 @@
 // With --stages it instead splits zvsmap's per-point time into stages (see
 // bench_stages.cc). Output: one line per point, then "RESULT key value" lines.
 // Usage: zvsmap_bench_point SWEEP [--ref REF] [--tol TOL] [--stages]
+//                           [--first K] [--count N]
 #include <algorithm>
 #include <chrono>
 #include <cmath>
+#include <cstdint>
 #include <cstdio>
 #include <cstdlib>
 #include <cstring>
@@ -258,12 +260,15 @@ void Result(const char* key, double value) { std::printf("RESULT %s %.6g\n", key
 
 int main(int argc, char** argv) {
   if (argc < 2) {
-    std::fprintf(stderr, "usage: %s SWEEP [--ref REF] [--tol TOL] [--stages]\n", argv[0]);
+    std::fprintf(stderr,
+                 "usage: %s SWEEP [--ref REF] [--tol TOL] [--stages] [--first K] [--count N]\n",
+                 argv[0]);
     return 2;
   }
   int ref = 1000;
   double tol = 0.005;
   bool stages = false;
+  size_t first = 0, count = SIZE_MAX;
   for (int i = 2; i < argc; ++i) {
     if (!std::strcmp(argv[i], "--ref") && i + 1 < argc)
       ref = std::atoi(argv[++i]);
@@ -271,12 +276,24 @@ int main(int argc, char** argv) {
       tol = std::atof(argv[++i]);
     else if (!std::strcmp(argv[i], "--stages"))
       stages = true;
+    else if (!std::strcmp(argv[i], "--first") && i + 1 < argc)
+      first = std::strtoul(argv[++i], nullptr, 10);
+    else if (!std::strcmp(argv[i], "--count") && i + 1 < argc)
+      count = std::strtoul(argv[++i], nullptr, 10);
   }
   PreparedSweep s;
   std::vector<Diagnostic> errors;
   if (!PrepareSweep(argv[1], 0, &s, &errors)) {
     for (const auto& e : errors) std::fprintf(stderr, "%s\n", e.Format().c_str());
     return 1;
+  }
+  // --first/--count: a slice of the points (e.g. the slowest, with a longer reference).
+  if (first > 0 || count < s.points.size()) {
+    std::vector<Point> slice;
+    for (size_t k = first; k < s.points.size() && k - first < count; ++k) {
+      slice.push_back(s.points[k]);
+    }
+    s.points = slice;
   }
   if (stages) return RunStageBreakdown(s);
   NgspiceSimulator sim;
@@ -293,7 +310,7 @@ int main(int argc, char** argv) {
   // (c): the period count that settles every point, then its accuracy.
   int slowest = 0;
   for (const auto& r : recs) slowest = std::max(slowest, r.ok ? r.settle_at : 0);
-  int n_c = std::min(ref, (slowest + 9) / 10 * 10);
+  int n_c = std::max(1, std::min(ref, (slowest + 9) / 10 * 10));
   std::vector<double> a_wall, a_per, a_err, c_wall, c_err, d_wall, d_err;
   int failed = 0;
   for (size_t k = 0; k < recs.size(); ++k) {
@@ -326,6 +343,7 @@ int main(int argc, char** argv) {
   Result("ref_periods", ref);
   Result("tol", tol);
   Result("c_periods", n_c + measured);
+  Result("c_settle", n_c);
   Result("slowest_settle", slowest);
   Result("a_wall", sum(a_wall));
   Result("a_periods_median", Median(a_per));
