@@ -1,0 +1,359 @@
+// Benchmark (not a test): what a point costs and how accurate it is, per
+// method, over the points of one sweep file (tools/bench drives it; see
+// DEVELOPERS.md "Benchmarks").
+//
+//   (a) zvsmap now: PointEvaluator::Evaluate, as `zvsmap run` calls it.
+//   (b) later improvements: an empty slot, filled by the change that makes one.
+//   (c) brute force: the template's initial state simulated for N periods,
+//       then the measured periods; N is the smallest count that settles every
+//       point of the sweep within TOL (see below). tools/bench also times this
+//       method as a batch loop of plain `ngspice -b` runs.
+//   (d) the one-period floor: one period per point from the initial state at
+//       the same step bound (the least any method can simulate).
+//   reference: REF periods from the initial state (runs of 50 periods, each
+//       from the previous run's last boundary), then the measured periods.
+//
+// Convergence check for (c): the reference run's period-boundary states are
+// compared with its last boundary; a point is settled from the first boundary
+// after which every slow state stays within max(TOL x its ripple over the
+// reference's measured period, its floor: 1 mA / 1 mV). N is the largest such
+// count over the sweep, rounded up to a multiple of 10.
+//
+// Accuracy, against the reference, per point the worst of both edges: the
+// commutated current (valley at high_on, peak at low_on) relative to the
+// reference's |peak - valley| swing, the turn-on voltage relative to the rail,
+// and the transition time relative to the reference's own (NaN: not reached).
+//
+// With --stages it instead splits zvsmap's per-point time into stages (see
+// bench_stages.cc). Output: one line per point, then "RESULT key value" lines.
+// Usage: zvsmap_bench_point SWEEP [--ref REF] [--tol TOL] [--stages]
+//                           [--first K] [--count N]
+#include <algorithm>
+#include <chrono>
+#include <cmath>
+#include <cstdint>
+#include <cstdio>
+#include <cstdlib>
+#include <cstring>
+#include <string>
+#include <vector>
+
+#include "analysis/commutation.h"
+#include "analysis/edge_finder.h"
+#include "bench_stages.h"
+#include "core/spice_number.h"
+#include "netlist/render.h"
+#include "run/point_evaluator.h"
+#include "run/sweep_setup.h"
+#include "sim/ngspice_simulator.h"
+#include "sim/steady_state.h"
+
+using namespace zvsmap;
+
+namespace {
+
+using Clock = std::chrono::steady_clock;
+double Since(Clock::time_point t0) {
+  return std::chrono::duration<double>(Clock::now() - t0).count();
+}
+
+constexpr int kChunk = 50;
+
+// The three compared quantities of one edge.
+struct EdgeValues {
+  double current = NAN, v_turn_on = NAN, t_transition = NAN, rail = NAN;
+};
+using PointValues = std::vector<EdgeValues>;  // high_on, low_on per cell
+
+PointValues FromEdges(const std::vector<EdgeMeasurement>& edges) {
+  PointValues v;
+  for (const auto& e : edges) {
+    v.push_back(
+        {e.Get("i_commutated_a"), e.Get("v_turn_on_v"), e.Get("t_transition_s"), e.Get("rail_v")});
+  }
+  return v;
+}
+
+// Worst relative error of `got` against `ref` (see the file comment); NaN
+// when the method gave no values.
+double RelError(const PointValues& got, const PointValues& ref) {
+  if (got.size() != ref.size() || ref.empty()) return NAN;
+  double swing = 0;
+  for (size_t i = 0; i + 1 < ref.size(); i += 2) {
+    swing = std::max(swing, std::fabs(ref[i + 1].current - ref[i].current));
+  }
+  double worst = 0;
+  for (size_t i = 0; i < ref.size(); ++i) {
+    auto rel = [](double a, double b, double scale) {
+      if (std::isnan(a) && std::isnan(b)) return 0.0;
+      if (std::isnan(a) || std::isnan(b)) return 1.0;  // reached in one, not the other
+      return std::fabs(a - b) / scale;
+    };
+    worst = std::max(worst, rel(got[i].current, ref[i].current, std::max(swing, 1e-3)));
+    worst = std::max(worst, rel(got[i].v_turn_on, ref[i].v_turn_on, std::fabs(ref[i].rail)));
+    worst = std::max(worst, rel(got[i].t_transition, ref[i].t_transition,
+                                std::max(std::fabs(ref[i].t_transition), 1e-12)));
+  }
+  return worst;
+}
+
+// One point's runs that start from a given slow state (the init params).
+struct PointRunner {
+  const PreparedSweep& s;
+  const Point& p;
+  PointEvaluator ev;
+  Variables resolved;
+  double period = 0;
+  std::vector<std::string> vectors;
+  std::vector<SlowState> states;
+  std::vector<double> x0;
+  PeriodRenderer render;
+
+  PointRunner(const PreparedSweep& sweep, const Point& point)
+      : s(sweep), p(point), ev(sweep.spec, sweep.tmpl) {
+    Diagnostic error;
+    ResolveParams(s.tmpl, p.values, &resolved, &error);
+    ResolvePeriod(s.tmpl, resolved, &period, &error);
+    vectors = VectorsToSave(s.tmpl);
+    for (const auto& st : s.tmpl.states) {
+      states.push_back({st.vector, resolved[st.init_param], SlowStateFloor(st.vector)});
+      x0.push_back(resolved[st.init_param]);
+    }
+    render = [this](const std::vector<double>& at, int periods, std::string* netlist,
+                    std::string* why) {
+      std::vector<ParamValue> values = p.values;
+      for (size_t i = 0; i < at.size(); ++i) values.push_back({s.tmpl.states[i].init_param, at[i]});
+      Variables r;
+      Diagnostic d;
+      if (!ResolveParams(s.tmpl, values, &r, &d)) {
+        *why = d.Format();
+        return false;
+      }
+      TranSettings tran = ev.TranFor(r, period);
+      tran.tstart_s = 0;
+      tran.tstop_s = (periods + kPeriodOverrun) * period;
+      *netlist = RenderNetlist(s.tmpl, r, tran, vectors);
+      return true;
+    };
+  }
+
+  // Simulates `periods` from `x`; measures the edges of its last
+  // measure_periods when `measure` (empty values when they are not found).
+  bool Run(std::vector<double> x, int periods, Simulator& sim, SimulationOutput* out) {
+    std::string why;
+    *out = RunFromState(sim, render, vectors, states, period, periods, -1, &x, &why);
+    return out->ok;
+  }
+  PointValues Measure(const SimulationOutput& out, int periods) const {
+    int measured = std::max(2, s.spec.simulation.measure_periods);
+    Waveforms w = out.waves.Window((periods - measured) * period, periods * period);
+    std::vector<EdgeMeasurement> edges;
+    for (const auto& cell : s.tmpl.cells) {
+      std::vector<EdgeTiming> found = FindEdges(cell, w, 0.02 * period);
+      for (const char* name : {"high_on", "low_on"}) {
+        auto it = std::find_if(found.begin(), found.end(),
+                               [&](const EdgeTiming& e) { return e.edge == name; });
+        if (it == found.end()) return {};
+        edges.push_back(MeasureEdge(cell, w, *it, s.spec.zvs, EdgeParamsFor(cell, resolved)));
+      }
+    }
+    return FromEdges(edges);
+  }
+};
+
+struct PointRecord {
+  bool ok = false;
+  double a_wall = 0, d_wall = 0, ref_per_period = 0;
+  int a_periods = 0, settle_at = -1;
+  PointValues a, d, ref;
+  std::vector<std::vector<double>> boundary;  // reference boundary states
+};
+
+double Median(std::vector<double> v) {
+  v.erase(std::remove_if(v.begin(), v.end(), [](double x) { return std::isnan(x); }), v.end());
+  if (v.empty()) return NAN;
+  std::sort(v.begin(), v.end());
+  size_t m = v.size() / 2;
+  return v.size() % 2 ? v[m] : 0.5 * (v[m - 1] + v[m]);
+}
+double Max(const std::vector<double>& v) {
+  double m = NAN;
+  for (double x : v) m = std::isnan(m) ? x : std::max(m, x);
+  return m;
+}
+
+PointRecord EvaluatePoint(const PreparedSweep& s, const Point& p, Simulator& sim, int ref,
+                          double tol) {
+  PointRecord rec;
+  PointRunner run(s, p);
+  const int measured = std::max(2, s.spec.simulation.measure_periods);
+  PointEvaluator ev(s.spec, s.tmpl);
+  PointResult r = ev.Evaluate(p, sim);
+  if (r.status != PointStatus::kOk) return rec;
+  rec.a_wall = r.wall_s;
+  rec.a_periods = r.settle.periods;
+  rec.a = FromEdges(r.edges);
+  SimulationOutput out;
+  auto t0 = Clock::now();
+  bool floor_ok = run.Run(run.x0, 1, sim, &out);
+  rec.d_wall = Since(t0);
+  if (floor_ok) {
+    // One period holds one edge of each kind: measure it as a one-period window.
+    Waveforms w = out.waves;
+    std::vector<EdgeMeasurement> edges;
+    for (const auto& cell : s.tmpl.cells) {
+      std::vector<EdgeTiming> found = FindEdges(cell, w, 0.02 * run.period);
+      for (const char* name : {"high_on", "low_on"}) {
+        auto it = std::find_if(found.begin(), found.end(),
+                               [&](const EdgeTiming& e) { return e.edge == name; });
+        if (it != found.end()) {
+          edges.push_back(MeasureEdge(cell, w, *it, s.spec.zvs, EdgeParamsFor(cell, run.resolved)));
+        }
+      }
+    }
+    if (edges.size() == 2 * s.tmpl.cells.size()) rec.d = FromEdges(edges);
+  }
+  // Reference trajectory, boundary by boundary.
+  std::vector<double> x = run.x0;
+  t0 = Clock::now();
+  for (int done = 0; done < ref; done += kChunk) {
+    int chunk = std::min(kChunk, ref - done);
+    if (!run.Run(x, chunk, sim, &out)) return rec;
+    for (int k = 1; k <= chunk; ++k) {
+      std::vector<double> at;
+      for (const auto& st : run.states) at.push_back(out.waves.At(st.vector, k * run.period));
+      rec.boundary.push_back(at);
+    }
+    x = rec.boundary.back();
+  }
+  rec.ref_per_period = Since(t0) / ref;
+  if (!run.Run(x, measured, sim, &out)) return rec;
+  rec.ref = run.Measure(out, measured);
+  // Ripple over the reference's last measured period, and the settling count.
+  std::vector<double> band;
+  const auto& t = out.waves.time();
+  for (size_t i = 0; i < run.states.size(); ++i) {
+    const auto& y = out.waves.Get(run.states[i].vector);
+    double lo = HUGE_VAL, hi = -HUGE_VAL;
+    for (size_t j = 0; j < t.size(); ++j) {
+      if (t[j] >= (measured - 1) * run.period && t[j] <= measured * run.period) {
+        lo = std::min(lo, y[j]);
+        hi = std::max(hi, y[j]);
+      }
+    }
+    band.push_back(std::max(tol * (hi - lo), run.states[i].floor));
+  }
+  int last_bad = 0;
+  for (int k = 1; k <= ref; ++k) {
+    for (size_t i = 0; i < band.size(); ++i) {
+      if (std::fabs(rec.boundary[k - 1][i] - rec.boundary.back()[i]) > band[i]) last_bad = k;
+    }
+  }
+  rec.settle_at = last_bad;
+  rec.ok = !rec.ref.empty();
+  return rec;
+}
+
+void Result(const char* key, double value) { std::printf("RESULT %s %.6g\n", key, value); }
+
+}  // namespace
+
+int main(int argc, char** argv) {
+  if (argc < 2) {
+    std::fprintf(stderr,
+                 "usage: %s SWEEP [--ref REF] [--tol TOL] [--stages] [--first K] [--count N]\n",
+                 argv[0]);
+    return 2;
+  }
+  int ref = 1000;
+  double tol = 0.005;
+  bool stages = false;
+  size_t first = 0, count = SIZE_MAX;
+  for (int i = 2; i < argc; ++i) {
+    if (!std::strcmp(argv[i], "--ref") && i + 1 < argc)
+      ref = std::atoi(argv[++i]);
+    else if (!std::strcmp(argv[i], "--tol") && i + 1 < argc)
+      tol = std::atof(argv[++i]);
+    else if (!std::strcmp(argv[i], "--stages"))
+      stages = true;
+    else if (!std::strcmp(argv[i], "--first") && i + 1 < argc)
+      first = std::strtoul(argv[++i], nullptr, 10);
+    else if (!std::strcmp(argv[i], "--count") && i + 1 < argc)
+      count = std::strtoul(argv[++i], nullptr, 10);
+  }
+  PreparedSweep s;
+  std::vector<Diagnostic> errors;
+  if (!PrepareSweep(argv[1], 0, &s, &errors)) {
+    for (const auto& e : errors) std::fprintf(stderr, "%s\n", e.Format().c_str());
+    return 1;
+  }
+  // --first/--count: a slice of the points (e.g. the slowest, with a longer reference).
+  if (first > 0 || count < s.points.size()) {
+    std::vector<Point> slice;
+    for (size_t k = first; k < s.points.size() && k - first < count; ++k) {
+      slice.push_back(s.points[k]);
+    }
+    s.points = slice;
+  }
+  if (stages) return RunStageBreakdown(s);
+  NgspiceSimulator sim;
+  const int measured = std::max(2, s.spec.simulation.measure_periods);
+  std::vector<PointRecord> recs;
+  for (const Point& p : s.points) {
+    recs.push_back(EvaluatePoint(s, p, sim, ref, tol));
+    const PointRecord& r = recs.back();
+    std::printf("point %zu %s: a %d periods %.3f s, d %.3f s, settled at %d of %d, %s\n", p.index,
+                p.Describe().c_str(), r.a_periods, r.a_wall, r.d_wall, r.settle_at, ref,
+                r.ok ? "ok" : "FAILED");
+    std::fflush(stdout);
+  }
+  // (c): the period count that settles every point, then its accuracy.
+  int slowest = 0;
+  for (const auto& r : recs) slowest = std::max(slowest, r.ok ? r.settle_at : 0);
+  int n_c = std::max(1, std::min(ref, (slowest + 9) / 10 * 10));
+  std::vector<double> a_wall, a_per, a_err, c_wall, c_err, d_wall, d_err;
+  int failed = 0;
+  for (size_t k = 0; k < recs.size(); ++k) {
+    const PointRecord& r = recs[k];
+    if (!r.ok) {
+      ++failed;
+      continue;
+    }
+    PointRunner run(s, s.points[k]);
+    SimulationOutput out;
+    auto t0 = Clock::now();
+    PointValues c;
+    if (run.Run(r.boundary[n_c - 1], measured, sim, &out)) c = run.Measure(out, measured);
+    double c_measure = Since(t0);
+    a_wall.push_back(r.a_wall);
+    a_per.push_back(r.a_periods);
+    a_err.push_back(RelError(r.a, r.ref));
+    c_wall.push_back(r.ref_per_period * n_c + c_measure);
+    c_err.push_back(RelError(c, r.ref));
+    d_wall.push_back(r.d_wall);
+    d_err.push_back(RelError(r.d, r.ref));
+  }
+  auto sum = [](const std::vector<double>& v) {
+    double t = 0;
+    for (double x : v) t += x;
+    return t;
+  };
+  Result("points", double(recs.size()));
+  Result("failed", failed);
+  Result("ref_periods", ref);
+  Result("tol", tol);
+  Result("c_periods", n_c + measured);
+  Result("c_settle", n_c);
+  Result("slowest_settle", slowest);
+  Result("a_wall", sum(a_wall));
+  Result("a_periods_median", Median(a_per));
+  Result("a_err_median", Median(a_err));
+  Result("a_err_max", Max(a_err));
+  Result("c_wall", sum(c_wall));
+  Result("c_err_median", Median(c_err));
+  Result("c_err_max", Max(c_err));
+  Result("d_wall", sum(d_wall));
+  Result("d_err_median", Median(d_err));
+  Result("d_err_max", Max(d_err));
+  return 0;
+}
