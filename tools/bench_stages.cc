@@ -172,7 +172,10 @@ int RunStageBreakdown(const PreparedSweep& s) {
   // The evaluation's wall time holds render, ngspice and analysis; store is
   // outside it (zvsmap's supervisor saves after the worker returns).
   double total = wall + save;
-  double other = wall - render - st.load - st.setup - st.stepping - st.copy - st.unload - analysis;
+  // The stages are timed one by one inside the evaluation's span, so their sum
+  // can exceed it by clock granularity: a remainder below zero is noise.
+  double other = std::max(
+      0.0, wall - render - st.load - st.setup - st.stepping - st.copy - st.unload - analysis);
   auto frac = [&](const char* name, double v) {
     std::printf("RESULT stage_%s %.4f\n", name, v / total);
   };

@@ -7,7 +7,7 @@
 #include "report/report_set.h"
 #include "run/progress.h"
 #include "run/run_plan.h"
-#include "run/solver_ladder.h"
+#include "report/solver_aid_use.h"
 
 namespace zvsmap::cli {
 

@@ -134,8 +134,9 @@ std::string GenericLibraryPath() { return DataFile("netlists/switches.lib"); }
 
 namespace {
 
-// Subcircuits of logical cards ((first line, text) pairs); `physical` (may be
-// empty) gives the text of the blocks.
+// Subcircuits of logical cards ((first line, text) pairs); `physical` gives
+// the text of the blocks; when it is empty (assembled cards) the block's text
+// is its logical cards, one a line.
 void ScanLogical(const std::string& path, const std::vector<std::pair<int, std::string>>& logical,
                  const std::vector<std::string>& physical, std::vector<SubcktInfo>* out) {
   SubcktInfo* open = nullptr;
@@ -150,6 +151,7 @@ void ScanLogical(const std::string& path, const std::vector<std::pair<int, std::
       open = &out->back();
       open->name = t.size() > 1 ? t[1] : "";
       open->where = {path, first, 0};
+      if (physical.empty()) open->text += text + "\n";
       bool in_params = false;
       for (size_t i = 2; i < t.size(); ++i) {
         if (Lower(t[i]) == "params:") {
@@ -164,6 +166,7 @@ void ScanLogical(const std::string& path, const std::vector<std::pair<int, std::
       continue;
     }
     if (!open) continue;
+    if (physical.empty()) open->text += text + "\n";
     if (head == ".ends") {
       if (--depth == 0) {
         for (int k = open->where.line; k <= first && k <= static_cast<int>(physical.size()); ++k)

@@ -6,7 +6,7 @@
 #include <limits>
 
 #include "report/zvs_boundary.h"
-#include "run/solver_ladder.h"
+#include "report/solver_aid_use.h"
 
 namespace zvsmap {
 

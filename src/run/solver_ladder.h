@@ -27,14 +27,6 @@ using PointAttempt = std::function<PointResult(AidedSimulator& simulator)>;
 PointResult RunSolverLadder(const SimulationSettings& sim, Simulator& simulator,
                             const PointAttempt& attempt);
 
-/// How many points ran with each aid: (aid name, points), in ladder order,
-/// only aids that were used ("none" is not counted).
-std::vector<std::pair<std::string, int>> CountSolverAids(const std::vector<PointResult>& results);
-
-/// One line for the terminal, e.g. "3 of 9 points ran with a solver aid
-/// (rshunt 2, gmin 1)" or "no point needed a solver aid".
-std::string DescribeSolverAidUse(const std::vector<PointResult>& results);
-
 /// Adds an error (at the <simulation> element) and returns false when the
 /// sweep's `solver-aid` value is not "auto", "off" or an aid's name.
 bool CheckSolverAidSetting(const SweepSpec& spec, std::vector<Diagnostic>* errors);

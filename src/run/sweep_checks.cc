@@ -94,6 +94,11 @@ std::vector<std::string> RequirableMetrics(const SweepSpec& spec, const Template
     for (const Metric& m : edges[0].metrics) {
       if (!Contains(names, m.column, false)) names.push_back(m.column);
     }
+    for (const Comparison& comparison : edges[0].comparisons) {
+      for (const FlatColumn& f : FlatColumns(comparison)) {
+        if (!Contains(names, f.name, false)) names.push_back(f.name);
+      }
+    }
   }
   return names;
 }

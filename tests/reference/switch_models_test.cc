@@ -91,7 +91,7 @@ TEST_F(SwitchModelsTest, JunctionChargeAndEnergyMatchTheClosedForms) {
 }
 
 // zsw_vdmos (netlists/switches.lib): with the gate at the source, Coss is the
-// reverse diode's junction capacitance (closed forms above, REFERENCES.md
+// reverse diode's junction capacitance (closed forms above, docs/references.md
 // sec. 6) plus ngspice's VDMOS gate-drain capacitance
 //   Cgd(V) = y - s*atan(a*V),  s = (Cmax - Cmin)/(1 + pi/2),  y = Cmax - s
 // (ngspice 39 source, devsup.c DevCapVDMOS, vgd = -V), integrated in closed form:

@@ -5,6 +5,8 @@
 #include <string>
 #include <vector>
 
+#include "report/solver_aid_use.h"
+
 namespace zvsmap {
 namespace {
 
