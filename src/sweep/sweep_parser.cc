@@ -724,9 +724,11 @@ std::vector<Diagnostic> CheckParamsKnown(const SweepSpec& spec,
     std::string best = ClosestName(name, known);
     // Else the three nearest by edit distance, so a guess ("deadtime") still
     // shows the spelling the template uses ("td_lh").
+    // (C++17 lambdas cannot capture a structured binding: name it first.)
+    const std::string& asked = name;
     std::vector<std::string> near(known.begin(), known.end());
     std::stable_sort(near.begin(), near.end(), [&](const std::string& a, const std::string& b) {
-      return EditDistance(name, a) < EditDistance(name, b);
+      return EditDistance(asked, a) < EditDistance(asked, b);
     });
     std::string listed;
     for (size_t i = 0; i < near.size() && i < 3; ++i) {
