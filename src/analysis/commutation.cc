@@ -4,6 +4,8 @@
 #include <cmath>
 #include <limits>
 
+#include "netlist/cell_vectors.h"
+
 namespace zvsmap {
 
 namespace {
@@ -14,10 +16,9 @@ constexpr double kReverseThresholdV = -0.1;
 
 // A node voltage vector, or zeros for ground.
 std::vector<double> NodeVoltage(const Waveforms& waves, const std::string& node) {
-  if (node.empty() || node == "0" || node == "gnd") {
-    return std::vector<double>(waves.time().size(), 0.0);
-  }
-  return waves.Get("v(" + node + ")");
+  const std::string vector = NodeVoltageVector(node);
+  if (vector.empty()) return std::vector<double>(waves.time().size(), 0.0);
+  return waves.Get(vector);
 }
 
 double Lookup(const Variables& vars, const std::string& name) {
@@ -101,7 +102,7 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
   double v_hi = Interpolate(t, NodeVoltage(waves, cell.rail_high), e.t_off_s);
   double v_lo = Interpolate(t, lo, e.t_off_s);
   double rail = v_hi - v_lo;
-  double current = Interpolate(t, waves.Get("i(" + cell.current + ")"), e.t_off_s);
+  double current = Interpolate(t, waves.Get(SourceCurrentVector(cell.current)), e.t_off_s);
   std::vector<double> vds_in = IncomingSwitchVoltage(cell, waves, up);
   std::vector<double> vds_out = IncomingSwitchVoltage(cell, waves, !up);
   double v_on = Interpolate(t, vds_in, e.t_on_s);
@@ -113,8 +114,9 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
   const std::string& gate = up ? cell.high_gate : cell.low_gate;
   const std::string& source = up ? cell.high_source : cell.low_source;
   double t_vth = kNaN;
-  if (std::isfinite(vth) && !gate.empty() && waves.Has("v(" + gate + ")") &&
-      (source.empty() || source == "0" || waves.Has("v(" + source + ")"))) {
+  const std::string gate_v = NodeVoltageVector(gate), source_v = NodeVoltageVector(source);
+  if (std::isfinite(vth) && !gate_v.empty() && waves.Has(gate_v) &&
+      (source_v.empty() || waves.Has(source_v))) {
     std::vector<double> g = NodeVoltage(waves, gate);
     std::vector<double> s = NodeVoltage(waves, source);
     for (size_t i = 0; i < g.size(); ++i) g[i] -= s[i];
@@ -166,7 +168,7 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
     if (!above.empty()) {
       // The reversal: the commutated current changes direction while the
       // node sits at the rail (it then leaves the clamp).
-      const auto& i_cell = waves.Get("i(" + cell.current + ")");
+      const auto& i_cell = waves.Get(SourceCurrentVector(cell.current));
       auto reversals = Crossings(t, i_cell, 0.0, up, t_zvs, above.front());
       auto zeros = Crossings(t, vds_in, 0.0, true, t_zvs, above.front());
       t_ringback = !reversals.empty() ? reversals.front()
@@ -192,10 +194,10 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
   }
   const std::string& in_sw = up ? cell.high : cell.low;
   const std::string& out_sw = up ? cell.low : cell.high;
-  const std::string in_ch = "i(v." + in_sw + ".vch)";
-  const std::string out_ch = "i(v." + out_sw + ".vch)";
-  const auto& cmd_in = waves.Get("v(" + (up ? cell.high_cmd : cell.low_cmd) + ")");
-  const auto& cmd_out = waves.Get("v(" + (up ? cell.low_cmd : cell.high_cmd) + ")");
+  const std::string in_ch = ChannelCurrentVector(in_sw);
+  const std::string out_ch = ChannelCurrentVector(out_sw);
+  const auto& cmd_in = waves.Get(NodeVoltageVector(up ? cell.high_cmd : cell.low_cmd));
+  const auto& cmd_out = waves.Get(NodeVoltageVector(up ? cell.low_cmd : cell.high_cmd));
   if (!in_sw.empty() && waves.Has(in_ch)) {
     auto starts = Crossings(t, cmd_in, 0.05, true, e.t_off_s, e.t_on_s);
     double t0 = starts.empty() ? e.t_on_s : starts.back();

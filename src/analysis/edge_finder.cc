@@ -2,6 +2,8 @@
 
 #include <algorithm>
 
+#include "netlist/cell_vectors.h"
+
 namespace zvsmap {
 
 namespace {
@@ -33,8 +35,9 @@ std::vector<EdgeTiming> FindEdges(const CellSpec& cell, const Waveforms& waves, 
   if (t.size() < 2) return out;
   double t_first = t.front();
   double t_last = t.back();
-  const auto& high = waves.Get("v(" + cell.high_cmd + ")");
-  const auto& low = waves.Get("v(" + cell.low_cmd + ")");
+  const CellVectors vectors = CellVectorsFor(cell);
+  const auto& high = waves.Get(vectors.high_cmd);
+  const auto& low = waves.Get(vectors.low_cmd);
 
   struct Kind {
     const char* name;

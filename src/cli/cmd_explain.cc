@@ -6,8 +6,6 @@
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
 #include "handcalc/explanation.h"
-#include "handcalc/hand_calculation.h"
-#include "netlist/render.h"
 #include "run/point_evaluator.h"
 #include "run/sweep_setup.h"
 #include "sim/ngspice_simulator.h"
@@ -42,21 +40,21 @@ void AddExplainCommand(CLI::App& app, int* exit_code) {
       return;
     }
     const Point& point = sweep.points[opts->point];
-    Variables resolved;
-    Diagnostic error;
-    if (!ResolveParams(sweep.tmpl, point.values, &resolved, &error)) {
-      PrintErrors({error});
+    // One evaluation: its hand calculation is printed now and compared with
+    // the simulated edges below, computed once.
+    PointEvaluator evaluator(sweep);
+    PointEvaluation ev;
+    if (!evaluator.Prepare(point, &ev)) {
+      PrintErrors({ev.error});
       *exit_code = kExitBadInput;
       return;
     }
-    HandCalculation calc;
-    bool calc_ok = ComputeHandCalculation(sweep.spec, sweep.tmpl, resolved, &calc, &error);
     std::printf("point %zu: %s\n\n", point.index, point.Describe().c_str());
-    for (const std::string& line : ExplainHandCalculation(calc, sweep.tmpl, resolved)) {
+    for (const std::string& line : ExplainHandCalculation(ev.hand, sweep.tmpl, ev.params)) {
       std::printf("%s\n", line.c_str());
     }
-    if (!calc_ok) {
-      PrintErrors({error});
+    if (!ev.hand_ok) {
+      PrintErrors({ev.hand_error});
       *exit_code = kExitBadInput;
       return;
     }
@@ -66,9 +64,9 @@ void AddExplainCommand(CLI::App& app, int* exit_code) {
     }
     std::printf("\nsimulating point %zu in ngspice...\n", point.index);
     std::fflush(stdout);
-    PointEvaluator evaluator(sweep);
     NgspiceSimulator simulator;
-    PointResult result = evaluator.Evaluate(point, simulator);
+    evaluator.Simulate(point, simulator, false, &ev);
+    const PointResult& result = ev.result;
     if (result.status != PointStatus::kOk) {
       std::fprintf(stderr, "zvsmap: point %zu %s: %s\n", point.index,
                    PointStatusName(result.status), result.reason.c_str());
@@ -77,7 +75,7 @@ void AddExplainCommand(CLI::App& app, int* exit_code) {
     }
     std::printf("settled by %s in %d periods (%.2f s)\n\n", SettleMethodName(result.settle.method),
                 result.settle.periods, result.wall_s);
-    for (const std::string& line : ExplainComparison(calc, result.edges)) {
+    for (const std::string& line : ExplainComparison(ev.hand, result.edges)) {
       std::printf("%s\n", line.c_str());
     }
     *exit_code = kExitOk;

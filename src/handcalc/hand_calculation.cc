@@ -198,6 +198,11 @@ bool AddPredictionMetrics(const SweepSpec& spec, const Template& tmpl, const Var
                           std::vector<EdgeMeasurement>* edges, Diagnostic* error) {
   HandCalculation calc;
   bool ok = ComputeHandCalculation(spec, tmpl, resolved, &calc, error);
+  AddComparisons(calc, edges);
+  return ok;
+}
+
+void AddComparisons(const HandCalculation& calc, std::vector<EdgeMeasurement>* edges) {
   for (EdgeMeasurement& e : *edges) {
     for (const CellCalculation& cell : calc.cells) {
       if (cell.cell != e.cell) continue;
@@ -212,7 +217,6 @@ bool AddPredictionMetrics(const SweepSpec& spec, const Template& tmpl, const Var
       }
     }
   }
-  return ok;
 }
 
 std::vector<Diagnostic> CheckPredictions(const SweepSpec& spec, const Template& tmpl,

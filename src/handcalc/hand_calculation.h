@@ -60,6 +60,10 @@ bool ComputeHandCalculation(const SweepSpec& spec, const Template& tmpl, const V
 bool AddPredictionMetrics(const SweepSpec& spec, const Template& tmpl, const Variables& resolved,
                           std::vector<EdgeMeasurement>* edges, Diagnostic* error);
 
+/// The comparisons AddPredictionMetrics adds, from a hand calculation already
+/// computed for the point (ComputeHandCalculation), appended to each edge.
+void AddComparisons(const HandCalculation& calc, std::vector<EdgeMeasurement>* edges);
+
 /// The simulated value a prediction pairs with: the edge's metric `metric`,
 /// or for "zvs_full" 1 when the edge's ZVS class is full, else 0.
 double SimulatedValue(const EdgeMeasurement& edge, const std::string& metric);

@@ -11,6 +11,7 @@
 #include "core/data_dir.h"
 #include "core/spice_number.h"
 #include "core/text.h"
+#include "netlist/cell_vectors.h"
 #include "netlist/deck_rules.h"
 #include "netlist/include_closure.h"
 #include "result/edge_identity.h"
@@ -502,8 +503,8 @@ DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& i
       inner += " " + port;
     }
   }
-  out.definitions.push_back("* wrapper: i(v." + inst_lower +
-                            ".vch) is the drain terminal current of " + sub.name + "\n.subckt " +
+  out.definitions.push_back("* wrapper: " + ChannelCurrentVector(inst_lower) +
+                            " is the drain terminal current of " + sub.name + "\n.subckt " +
                             wrapper + " " + ports + "\nvch d d_dut 0\nx1" + inner + " " + sub.name +
                             param_text + "\n.ends " + wrapper + "\n");
   out.instance = instance + " " + outer + " " + wrapper;

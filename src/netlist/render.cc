@@ -5,6 +5,7 @@
 
 #include "core/spice_number.h"
 #include "core/text.h"
+#include "netlist/cell_vectors.h"
 
 namespace zvsmap {
 
@@ -123,23 +124,8 @@ std::vector<std::string> VectorsToSave(const Template& tmpl) {
       if (x == v) return;
     out.push_back(v);
   };
-  auto node = [&](const std::string& n) {
-    if (!n.empty() && n != "0" && n != "gnd") add("v(" + n + ")");
-  };
   for (const auto& c : tmpl.cells) {
-    node(c.node);
-    node(c.rail_high);
-    node(c.rail_low);
-    add("i(" + c.current + ")");
-    node(c.high_cmd);
-    node(c.low_cmd);
-    node(c.high_gate);
-    node(c.high_source);
-    node(c.low_gate);
-    node(c.low_source);
-    // Channel currents (drain -> source) of the switch subcircuits' 'vch'.
-    if (!c.high.empty()) add("i(v." + c.high + ".vch)");
-    if (!c.low.empty()) add("i(v." + c.low + ".vch)");
+    for (const std::string& v : CellVectorsFor(c).All()) add(v);
   }
   for (const auto& s : tmpl.states) add(s.vector);
   return out;

@@ -47,10 +47,10 @@ bool SampleAt(const ReportInput& input, const std::map<std::vector<int>, size_t>
 
 }  // namespace
 
-std::vector<Plot> DeadTimeCharts(const ReportInput& input) {
+std::vector<Plot> DeadTimeCharts(const ReportBasis& input) {
   std::vector<Plot> plots;
-  WindowColumns w = FindWindowColumns(input.results);
-  Grid grid = BuildGrid(input.spec, input.points);
+  const WindowColumns& w = input.window;
+  const Grid& grid = input.grid;
   std::vector<size_t> swept = grid.SweptDims();
   if (w.start.empty() || swept.empty()) return plots;
   std::map<std::vector<int>, size_t> index;
@@ -59,7 +59,7 @@ std::vector<Plot> DeadTimeCharts(const ReportInput& input) {
   size_t n_series = swept.size() > 1 ? grid.dims[swept[1]].values.size() : 1;
   n_series = std::min<size_t>(n_series, 8);
 
-  for (const EdgeKey& key : MeasuredEdges(input.results)) {
+  for (const EdgeKey& key : input.edges) {
     std::vector<std::vector<WindowSample>> series(n_series);
     double y_lo = INFINITY, y_hi = -INFINITY;
     for (size_t k = 0; k < n_series; ++k) {

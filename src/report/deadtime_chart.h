@@ -16,6 +16,6 @@ namespace zvsmap {
 /// end that was not reached within the dead time leaves the band open
 /// (drawn up to the dead time set, marked). The recommended dead time is
 /// drawn when the results carry a "t_dead_recommended_s" column.
-std::vector<Plot> DeadTimeCharts(const ReportInput& input);
+std::vector<Plot> DeadTimeCharts(const ReportBasis& input);
 
 }  // namespace zvsmap

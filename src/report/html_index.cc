@@ -30,7 +30,7 @@ std::string HtmlEscape(const std::string& text) {
   return out;
 }
 
-std::string BuildHtmlIndex(const ReportInput& input,
+std::string BuildHtmlIndex(const ReportBasis& input,
                            const std::vector<RequirementVerdict>& verdicts,
                            const std::vector<Plot>& plots, const std::vector<std::string>& files) {
   int ran = 0, not_run = 0, req_failed = 0;

@@ -18,7 +18,7 @@ std::string HtmlEscape(const std::string& text);
 /// requirements table, each plot as an <img> of its SVG file (relative path),
 /// links to `files` (relative names, e.g. "edges.csv"), and the cautions.
 /// Self-contained: inline CSS, no scripts, nothing fetched from the network.
-std::string BuildHtmlIndex(const ReportInput& input,
+std::string BuildHtmlIndex(const ReportBasis& input,
                            const std::vector<RequirementVerdict>& verdicts,
                            const std::vector<Plot>& plots, const std::vector<std::string>& files);
 

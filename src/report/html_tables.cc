@@ -149,8 +149,8 @@ Range RangeOf(const ReportInput& input, const EdgeKey& key, const std::string& c
   return r;
 }
 
-std::string WindowTable(const ReportInput& input, const EdgeKey& key) {
-  WindowColumns w = FindWindowColumns(input.results);
+std::string WindowTable(const ReportBasis& input, const EdgeKey& key) {
+  const WindowColumns& w = input.window;
   std::string h = "<table class=\"window\">\n" +
                   Header({"quantity", "column", "points", "shortest", "longest"});
   auto row = [&](const std::string& what, const std::string& column) {
@@ -215,12 +215,12 @@ std::string Disagreements(const ReportInput& input, const EdgeKey& key) {
 
 }  // namespace
 
-std::string HtmlEdgeSections(const ReportInput& input) {
-  Grid grid = BuildGrid(input.spec, input.points);
-  MarginSource margin = ChooseMargin(input.results);
+std::string HtmlEdgeSections(const ReportBasis& input) {
+  const Grid& grid = input.grid;
+  const MarginSource& margin = input.margin;
   std::string unit = margin.column.empty() ? margin.unit : MetricUnit(margin.column);
   std::string h;
-  for (const EdgeKey& key : MeasuredEdges(input.results)) {
+  for (const EdgeKey& key : input.edges) {
     h += "<section class=\"edge\" id=\"edge-" + HtmlEscape(key.cell + "-" + key.edge) +
          "\" data-cell=\"" + HtmlEscape(key.cell) + "\" data-edge=\"" + HtmlEscape(key.edge) +
          "\">\n<h2>" + HtmlEscape(key.Label()) + "</h2>\n";

@@ -12,7 +12,7 @@ namespace zvsmap {
 /// One <section> per measured edge (id "edge-CELL-EDGE") with its tables.
 /// Every number cell carries the raw value in `data-value` (9 significant
 /// digits, as summary.xml writes them) beside the text with units.
-std::string HtmlEdgeSections(const ReportInput& input);
+std::string HtmlEdgeSections(const ReportBasis& input);
 
 /// The failed and unsettled points with their reasons and how settling was
 /// attempted (id "failed-points"); a sentence when every point ran.

@@ -145,8 +145,9 @@ size_t TickStride(size_t n) { return n <= 10 ? 1 : (n + 9) / 10; }
 
 }  // namespace
 
-Plot ZvsMapPlot(const ReportInput& input, const Grid& grid, const EdgeKey& key, size_t x_dim,
-                size_t y_dim, const std::vector<int>& fixed) {
+Plot ZvsMapPlot(const ReportBasis& input, const EdgeKey& key, size_t x_dim, size_t y_dim,
+                const std::vector<int>& fixed) {
+  const Grid& grid = input.grid;
   const GridDim& xd = grid.dims[x_dim];
   const GridDim& yd = grid.dims[y_dim];
   size_t nx = xd.values.size(), ny = yd.values.size();
@@ -164,7 +165,7 @@ Plot ZvsMapPlot(const ReportInput& input, const Grid& grid, const EdgeKey& key, 
   SvgCanvas svg(kWidth, kHeight, title);
   svg.Text(kLeft + plot_w / 2, 24, title, "middle", 15);
 
-  MarginSource margin = ChooseMargin(input.results);
+  const MarginSource& margin = input.margin;
   std::string margin_unit = margin.column.empty() ? margin.unit : MetricUnit(margin.column);
   auto index = IndexByCoords(grid);
   std::vector<MapCell> cells(nx * ny);
@@ -262,11 +263,12 @@ Plot ZvsMapPlot(const ReportInput& input, const Grid& grid, const EdgeKey& key, 
   return plot;
 }
 
-Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& key, size_t dim,
+Plot MetricCurvePlot(const ReportBasis& input, const EdgeKey& key, size_t dim,
                      const std::vector<int>& fixed, const std::string& column) {
   const double kWidth = 720, kHeight = 440, kLeft = 90, kRight = 150, kTop = 50, kBottom = 60;
+  const Grid& grid = input.grid;
   const GridDim& xd = grid.dims[dim];
-  MarginSource margin = ChooseMargin(input.results);
+  const MarginSource& margin = input.margin;
   bool is_margin = column == "zvs_margin";
   std::string value_column = is_margin ? margin.column : column;
   std::string pred_column = value_column.empty() ? "" : value_column + "__pred";
@@ -399,11 +401,11 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
   return plot;
 }
 
-std::vector<Plot> MakePlots(const ReportInput& input) {
+std::vector<Plot> MakePlots(const ReportBasis& input) {
   std::vector<Plot> plots;
-  Grid grid = BuildGrid(input.spec, input.points);
+  const Grid& grid = input.grid;
   std::vector<size_t> swept = grid.SweptDims();
-  std::vector<EdgeKey> edges = MeasuredEdges(input.results);
+  const std::vector<EdgeKey>& edges = input.edges;
   std::vector<int> fixed(grid.dims.size(), 0);
   if (swept.size() == 1) {
     std::vector<std::string> columns = {"zvs_margin", "v_turn_on_v", "i_commutated_a",
@@ -412,7 +414,7 @@ std::vector<Plot> MakePlots(const ReportInput& input) {
     if (!t_zvs.empty()) columns.push_back(t_zvs);
     for (const EdgeKey& key : edges) {
       for (const std::string& column : columns) {
-        plots.push_back(MetricCurvePlot(input, grid, key, swept[0], fixed, column));
+        plots.push_back(MetricCurvePlot(input, key, swept[0], fixed, column));
       }
     }
     return plots;
@@ -425,7 +427,7 @@ std::vector<Plot> MakePlots(const ReportInput& input) {
   for (const EdgeKey& key : edges) {
     std::vector<int> at(grid.dims.size(), 0);
     for (int n = 0; n < kMaxMapsPerEdge; ++n) {
-      plots.push_back(ZvsMapPlot(input, grid, key, swept[1], swept[0], at));
+      plots.push_back(ZvsMapPlot(input, key, swept[1], swept[0], at));
       size_t k = 0;
       for (; k < further.size(); ++k) {
         size_t d = further[k];

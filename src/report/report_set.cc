@@ -54,8 +54,16 @@ std::string XmlText(const pugi::xml_document& doc) {
 
 }  // namespace
 
-bool WriteReports(const ReportInput& input, const std::string& dir, ReportOutcome* outcome,
+ReportBasis::ReportBasis(const ReportInput& input)
+    : ReportInput(input),
+      grid(BuildGrid(spec, points)),
+      edges(MeasuredEdges(results)),
+      margin(ChooseMargin(results)),
+      window(FindWindowColumns(results)) {}
+
+bool WriteReports(const ReportInput& raw_input, const std::string& dir, ReportOutcome* outcome,
                   std::string* error) {
+  const ReportBasis input(raw_input);
   std::ostringstream csv;
   WriteEdgesCsv(csv, input.points, input.results);
   if (!WriteText(dir, "edges.csv", csv.str(), outcome, error)) return false;

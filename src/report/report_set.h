@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "netlist/template.h"
+#include "report/zvs_boundary.h"
 #include "result/point_result.h"
 #include "sweep/point.h"
 #include "sweep/sweep_spec.h"
@@ -19,6 +20,20 @@ struct ReportInput {
   const Template& tmpl;
   const std::vector<Point>& points;
   const std::vector<PointResult>& results;
+};
+
+/// The input with what every report derives from it, derived once (by
+/// WriteReports) and handed to each writer: the grid, the measured edges, the
+/// margin and the dead-time window columns.
+struct ReportBasis : ReportInput {
+  /// Derives grid, edges, margin and window from `input` (whose sweep, points
+  /// and results must outlive the basis).
+  explicit ReportBasis(const ReportInput& input);
+
+  Grid grid;                   ///< BuildGrid(spec, points)
+  std::vector<EdgeKey> edges;  ///< MeasuredEdges(results)
+  MarginSource margin;         ///< ChooseMargin(results)
+  WindowColumns window;        ///< FindWindowColumns(results)
 };
 
 /// What writing the reports found out, for the verdict and the exit status.

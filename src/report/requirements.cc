@@ -83,9 +83,9 @@ std::string Check(const RequirementSpec& r, const EdgeMeasurement& e, const Marg
 
 }  // namespace
 
-std::vector<RequirementVerdict> EvaluateRequirements(const ReportInput& input) {
-  MarginSource margin = ChooseMargin(input.results);
-  WindowColumns window = FindWindowColumns(input.results);
+std::vector<RequirementVerdict> EvaluateRequirements(const ReportBasis& input) {
+  const MarginSource& margin = input.margin;
+  const WindowColumns& window = input.window;
   constexpr size_t kMaxDetails = 50;
 
   std::vector<RequirementVerdict> verdicts;

@@ -27,6 +27,6 @@ struct RequirementVerdict {
 /// when its where-expression cannot be evaluated (the message then names the
 /// requirement's file:line). Covered points that did not run are counted as
 /// unchecked, not as failures (the run's exit status reports them).
-std::vector<RequirementVerdict> EvaluateRequirements(const ReportInput& input);
+std::vector<RequirementVerdict> EvaluateRequirements(const ReportBasis& input);
 
 }  // namespace zvsmap

@@ -158,7 +158,7 @@ void AddSolverAids(pugi::xml_node root, const std::string& setting,
 
 }  // namespace
 
-void BuildSummaryXml(const ReportInput& input, const std::vector<RequirementVerdict>& verdicts,
+void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerdict>& verdicts,
                      pugi::xml_document* doc) {
   doc->reset();
   pugi::xml_node decl = doc->append_child(pugi::node_declaration);
@@ -184,7 +184,7 @@ void BuildSummaryXml(const ReportInput& input, const std::vector<RequirementVerd
   run.append_attribute("zvs-criterion") = input.spec.zvs.Describe().c_str();
   AddSolverAids(root, input.spec.simulation.solver_aid, input.results);
 
-  Grid grid = BuildGrid(input.spec, input.points);
+  const Grid& grid = input.grid;
   pugi::xml_node grid_node = root.append_child("grid");
   for (const GridDim& dim : grid.dims) {
     pugi::xml_node d = grid_node.append_child("dimension");
@@ -199,16 +199,15 @@ void BuildSummaryXml(const ReportInput& input, const std::vector<RequirementVerd
     }
   }
 
-  MarginSource margin = ChooseMargin(input.results);
+  const MarginSource& margin = input.margin;
   pugi::xml_node m = root.append_child("margin");
   m.append_attribute("source") = margin.column.empty() ? "voltage-difference" : "column";
   m.append_attribute("definition") = margin.description.c_str();
   if (!margin.unit.empty()) m.append_attribute("unit") = margin.unit.c_str();
   m.append_attribute("positive-means") = "turn-on within the ZVS criterion";
 
-  WindowColumns window = FindWindowColumns(input.results);
-  for (const EdgeKey& key : MeasuredEdges(input.results)) {
-    AddEdge(root, input, grid, key, margin, window);
+  for (const EdgeKey& key : input.edges) {
+    AddEdge(root, input, grid, key, margin, input.window);
   }
 
   pugi::xml_node failed_node = root.append_child("failed-points");

@@ -16,7 +16,7 @@ namespace zvsmap {
 /// region as <boundary> elements, the worst margin and the measured ranges of
 /// t_ZVS and the dead-time window (when the results have those columns), then
 /// the points that did not run and the requirement verdicts.
-void BuildSummaryXml(const ReportInput& input, const std::vector<RequirementVerdict>& verdicts,
+void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerdict>& verdicts,
                      pugi::xml_document* doc);
 
 /// Formats a number for the XML files: %.9g; NaN, INF, -INF as xs:double spells them.

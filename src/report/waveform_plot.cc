@@ -7,6 +7,7 @@
 #include <vector>
 
 #include "core/spice_number.h"
+#include "netlist/cell_vectors.h"
 #include "report/svg_canvas.h"
 
 namespace zvsmap {
@@ -23,26 +24,24 @@ struct Trace {
   bool dashed = false;
 };
 
-bool IsGround(const std::string& node) { return node == "0" || node == "gnd"; }
-
-// A node voltage on the window's samples; false when the data lack it.
-bool NodeVoltage(const Waveforms& w, const std::string& node, std::vector<double>* out) {
-  if (node.empty()) return false;
-  if (IsGround(node)) {
+// A node voltage on the window's samples, from its vector (see CellVectors:
+// "" is ground, which reads 0 V); false when the data lack it.
+bool NodeVoltage(const Waveforms& w, const std::string& vector, std::vector<double>* out) {
+  if (vector.empty()) {
     out->assign(w.time().size(), 0.0);
     return true;
   }
-  std::string name = "v(" + node + ")";
-  if (!w.Has(name)) return false;
-  *out = w.Get(name);
+  if (!w.Has(vector)) return false;
+  *out = w.Get(vector);
   return true;
 }
 
+// plus - minus; false when `plus` is not named or missing, `minus` missing reads 0 V.
 bool Difference(const Waveforms& w, const std::string& plus, const std::string& minus,
                 std::vector<double>* out) {
   std::vector<double> a, b;
-  if (!NodeVoltage(w, plus, &a)) return false;
-  if (minus.empty() || !NodeVoltage(w, minus, &b)) b.assign(a.size(), 0.0);
+  if (plus.empty() || !NodeVoltage(w, plus, &a)) return false;
+  if (!NodeVoltage(w, minus, &b)) b.assign(a.size(), 0.0);
   out->resize(a.size());
   for (size_t i = 0; i < a.size(); ++i) (*out)[i] = a[i] - b[i];
   return true;
@@ -154,31 +153,25 @@ Plot EdgeWaveformPlot(const Waveforms& waves, const CellSpec& cell, const EdgeTi
   if (x_hi <= x_lo) x_hi = x_lo + 1;
 
   std::vector<Trace> node, gates, current;
+  const CellVectors v = CellVectorsFor(cell);
   std::vector<double> y;
-  if (NodeVoltage(w, cell.node, &y)) node.push_back({"v(" + cell.node + ")", "#0072B2", y});
-  if (!IsGround(cell.rail_high) && NodeVoltage(w, cell.rail_high, &y)) {
-    node.push_back({"v(" + cell.rail_high + ")", "#777777", y, true});
-  }
-  if (!IsGround(cell.rail_low) && NodeVoltage(w, cell.rail_low, &y)) {
-    node.push_back({"v(" + cell.rail_low + ")", "#777777", y, true});
+  if (!v.node.empty() && NodeVoltage(w, v.node, &y)) node.push_back({v.node, "#0072B2", y});
+  for (const std::string* rail : {&v.rail_high, &v.rail_low}) {
+    if (!rail->empty() && NodeVoltage(w, *rail, &y)) node.push_back({*rail, "#777777", y, true});
   }
   std::string gate_label = "gate-source (V)";
-  bool have_gates = false;
-  if (!cell.high_gate.empty() && Difference(w, cell.high_gate, cell.high_source, &y)) {
+  if (Difference(w, v.high_gate, v.high_source, &y)) {
     gates.push_back({"v_gs " + cell.high, "#009E73", y});
-    have_gates = true;
   }
-  if (!cell.low_gate.empty() && Difference(w, cell.low_gate, cell.low_source, &y)) {
+  if (Difference(w, v.low_gate, v.low_source, &y)) {
     gates.push_back({"v_gs " + cell.low, "#CC79A7", y});
-    have_gates = true;
   }
-  if (!have_gates) {
+  if (gates.empty()) {
     gate_label = "command (V)";
-    if (NodeVoltage(w, cell.high_cmd, &y)) gates.push_back({"cmd " + cell.high, "#009E73", y});
-    if (NodeVoltage(w, cell.low_cmd, &y)) gates.push_back({"cmd " + cell.low, "#CC79A7", y});
+    if (Difference(w, v.high_cmd, "", &y)) gates.push_back({"cmd " + cell.high, "#009E73", y});
+    if (Difference(w, v.low_cmd, "", &y)) gates.push_back({"cmd " + cell.low, "#CC79A7", y});
   }
-  std::string i_name = "i(" + cell.current + ")";
-  if (w.Has(i_name)) current.push_back({i_name, "#E69F00", w.Get(i_name)});
+  if (w.Has(v.current)) current.push_back({v.current, "#E69F00", w.Get(v.current)});
 
   std::vector<std::pair<double, std::string>> markers = {
       {0.0, "off"}, {(timing.t_on_s - timing.t_off_s) * 1e9, "on"}};

@@ -6,7 +6,9 @@
 #include <string>
 #include <vector>
 
-#include "report/report_set.h"
+#include "result/point_result.h"
+#include "sweep/point.h"
+#include "sweep/sweep_spec.h"
 
 namespace zvsmap {
 

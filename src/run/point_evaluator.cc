@@ -92,6 +92,45 @@ std::string LowerAscii(std::string s) {
   return s;
 }
 
+// The point's values with each slow state's init parameter set to `x`.
+std::vector<ParamValue> WithInitialState(std::vector<ParamValue> values,
+                                         const std::vector<double>& x, const Template& tmpl) {
+  for (size_t i = 0; i < x.size(); ++i) {
+    const std::string& name = tmpl.states[i].init_param;
+    auto it = std::find_if(values.begin(), values.end(),
+                           [&](const ParamValue& v) { return LowerAscii(v.name) == name; });
+    if (it != values.end()) {
+      it->value = x[i];
+    } else {
+      values.push_back({name, x[i]});
+    }
+  }
+  return values;
+}
+
+// What the steady-state search did, as the point result records it.
+void RecordSettling(const SteadyStateResult& ss, const Template& tmpl, SettleRecord* out) {
+  SettleMethodFromName(ss.method, &out->method);
+  out->iterations = ss.iterations;
+  out->periods = ss.periods;
+  out->residual = ss.residual;
+  for (size_t i = 0; i < tmpl.states.size() && i < ss.state.size(); ++i) {
+    out->initial_state.push_back({tmpl.states[i].init_param, ss.state[i]});
+  }
+}
+
+// The steady-state search as the sweep's <simulation> sets it.
+SteadyStateOptions SettleOptions(const SimulationSettings& sim) {
+  SteadyStateOptions options;
+  options.method = sim.settle_method == "periods" ? SteadyStateOptions::Method::kPeriods
+                                                  : SteadyStateOptions::Method::kShooting;
+  options.tolerance = sim.settle_tolerance;
+  options.max_newton = sim.max_newton;
+  options.max_periods = sim.max_periods;
+  options.chunk_periods = std::max(1, std::min(sim.settle_periods, sim.max_periods));
+  return options;
+}
+
 }  // namespace
 
 bool PointEvaluator::RenderPointDeck(const Point& point, Deck* deck, Diagnostic* error) const {
@@ -121,30 +160,52 @@ bool PointEvaluator::Render(const Point& point, std::string* netlist, Diagnostic
 
 PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
                                      Waveforms* settled) const {
-  return RunSolverLadder(spec_.simulation, simulator, [&](AidedSimulator& aided) {
-    return EvaluateOnce(point, aided, settled);
+  PointEvaluation ev = EvaluateFully(point, simulator, settled != nullptr);
+  if (settled) *settled = std::move(ev.settled);
+  return std::move(ev.result);
+}
+
+bool PointEvaluator::Prepare(const Point& point, PointEvaluation* out) const {
+  *out = PointEvaluation();
+  out->resolved = ResolveParams(tmpl_, point.values, &out->params, &out->error) &&
+                  ResolvePeriod(tmpl_, out->params, &out->period_s, &out->error);
+  if (!out->resolved) return false;
+  out->hand_ok = ComputeHandCalculation(spec_, tmpl_, out->params, &out->hand, &out->hand_error);
+  return true;
+}
+
+void PointEvaluator::Simulate(const Point& point, Simulator& simulator, bool keep_waveforms,
+                              PointEvaluation* ev) const {
+  ev->result = RunSolverLadder(spec_.simulation, simulator, [&](AidedSimulator& aided) {
+    if (ev->resolved) return EvaluateOnce(point, aided, ev, keep_waveforms);
+    PointResult failed;
+    failed.index = point.index;
+    failed.reason = ev->error.Format();
+    return failed;
   });
 }
 
+PointEvaluation PointEvaluator::EvaluateFully(const Point& point, Simulator& simulator,
+                                              bool keep_waveforms) const {
+  PointEvaluation ev;
+  Prepare(point, &ev);
+  Simulate(point, simulator, keep_waveforms, &ev);
+  return ev;
+}
+
 PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& simulator,
-                                         Waveforms* settled) const {
+                                         PointEvaluation* ev, bool keep_waveforms) const {
   auto started = std::chrono::steady_clock::now();
   PointResult result;
   result.index = point.index;
+  ev->edges.clear();
+  ev->settled = Waveforms();
   auto finish = [&]() {
     result.wall_s =
         std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
     return result;
   };
-
-  Variables resolved;
-  double period = 0;
-  Diagnostic error;
-  if (!ResolveParams(tmpl_, point.values, &resolved, &error) ||
-      !ResolvePeriod(tmpl_, resolved, &period, &error)) {
-    result.reason = error.Format();
-    return finish();
-  }
+  const double period = ev->period_s;
 
   // Settle: the slow states start from the template's own init expressions
   // (the average-model state); each run re-renders with the init params set.
@@ -152,27 +213,16 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
   const std::vector<std::string> vectors = VectorsToSave(tmpl_);
   std::vector<SlowState> states;
   for (const auto& s : tmpl_.states) {
-    states.push_back({s.vector, resolved.at(s.init_param), SlowStateFloor(s.vector)});
+    states.push_back({s.vector, ev->params.at(s.init_param), SlowStateFloor(s.vector)});
   }
   // The last deck handed to the engine: its messages about netlist lines are
   // mapped back to the user's file:line through it.
   Deck last_deck;
   auto render = [&](const std::vector<double>& x, int periods, std::string* netlist,
                     std::string* why) {
-    std::vector<ParamValue> values = point.values;
-    for (size_t i = 0; i < x.size(); ++i) {
-      const std::string& name = tmpl_.states[i].init_param;
-      auto it = std::find_if(values.begin(), values.end(),
-                             [&](const ParamValue& v) { return LowerAscii(v.name) == name; });
-      if (it != values.end()) {
-        it->value = x[i];
-      } else {
-        values.push_back({name, x[i]});
-      }
-    }
     Variables r;
     Diagnostic d;
-    if (!ResolveParams(tmpl_, values, &r, &d)) {
+    if (!ResolveParams(tmpl_, WithInitialState(point.values, x, tmpl_), &r, &d)) {
       *why = d.Format();
       return false;
     }
@@ -183,22 +233,10 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     *netlist = last_deck.Text();
     return true;
   };
-  SteadyStateOptions options;
-  options.method = sim.settle_method == "periods" ? SteadyStateOptions::Method::kPeriods
-                                                  : SteadyStateOptions::Method::kShooting;
-  options.tolerance = sim.settle_tolerance;
-  options.max_newton = sim.max_newton;
-  options.max_periods = sim.max_periods;
-  options.chunk_periods = std::max(1, std::min(sim.settle_periods, sim.max_periods));
+  SteadyStateOptions options = SettleOptions(sim);
   SteadyStateResult ss = FindPeriodicSteadyState(simulator, render, vectors, states, period,
                                                  options);
-  SettleMethodFromName(ss.method, &result.settle.method);
-  result.settle.iterations = ss.iterations;
-  result.settle.periods = ss.periods;
-  result.settle.residual = ss.residual;
-  for (size_t i = 0; i < states.size() && i < ss.state.size(); ++i) {
-    result.settle.initial_state.push_back({tmpl_.states[i].init_param, ss.state[i]});
-  }
+  RecordSettling(ss, tmpl_, &result.settle);
   if (!ss.ok) {
     result.reason = "while settling: " + MapEngineLines(ss.error, last_deck);
     result.log = MapEngineLog(ss.log, last_deck);
@@ -226,34 +264,44 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     result.log = MapEngineLog(out.log, last_deck);
     return finish();
   }
+  if (!MeasureCells(out, ev, &result)) return finish();
+  result.status = PointStatus::kOk;
+  if (keep_waveforms) ev->settled = std::move(out.waves);
+  return finish();
+}
 
-  for (const auto& cell : tmpl_.cells) {
-    std::vector<EdgeTiming> edges = FindEdges(cell, out.waves, 0.02 * period);
-    EdgeParams edge_params = EdgeParamsFor(cell, resolved);
+bool PointEvaluator::MeasureCells(const SimulationOutput& out, PointEvaluation* ev,
+                                  PointResult* result) const {
+  for (size_t c = 0; c < tmpl_.cells.size(); ++c) {
+    const CellSpec& cell = tmpl_.cells[c];
+    std::vector<EdgeTiming> edges = FindEdges(cell, out.waves, 0.02 * ev->period_s);
+    EdgeParams edge_params = EdgeParamsFor(cell, ev->params);
     for (EdgeKind kind : kEdgeKinds) {
       const char* name = EdgeKindName(kind);
       auto it = std::find_if(edges.begin(), edges.end(),
                              [&](const EdgeTiming& e) { return e.edge == name; });
       if (it == edges.end()) {
-        result.edges.clear();
-        result.reason = "edge '" + cell.name + "." + name +
-                        "' not found in the measured periods (check the command signals)";
-        result.log = out.log;
-        return finish();
+        result->edges.clear();
+        ev->edges.clear();
+        result->reason = "edge '" + cell.name + "." + name +
+                         "' not found in the measured periods (check the command signals)";
+        result->log = out.log;
+        return false;
       }
-      result.edges.push_back(MeasureEdge(cell, out.waves, *it, spec_.zvs, edge_params));
+      result->edges.push_back(MeasureEdge(cell, out.waves, *it, spec_.zvs, edge_params));
+      ev->edges.push_back({c, *it});
     }
   }
-  // Hand calculation beside the measured edges (src/handcalc). A formula that
-  // fails leaves its columns empty and says why; the point itself stays ok.
-  Diagnostic hand;
-  if (!AddPredictionMetrics(spec_, tmpl_, resolved, &result.edges, &hand)) {
+  // Hand calculation beside the measured edges (src/handcalc), computed once
+  // per point by Prepare. A formula that fails leaves its columns empty and
+  // says why; the point itself stays ok.
+  AddComparisons(ev->hand, &result->edges);
+  if (!ev->hand_ok) {
+    Diagnostic hand = ev->hand_error;
     hand.source_line.clear();
-    result.reason = "hand calculation: " + hand.Format();
+    result->reason = "hand calculation: " + hand.Format();
   }
-  result.status = PointStatus::kOk;
-  if (settled) *settled = std::move(out.waves);
-  return finish();
+  return true;
 }
 
 }  // namespace zvsmap

@@ -3,7 +3,9 @@
 
 #include <string>
 
+#include "analysis/edge_finder.h"
 #include "core/diagnostic.h"
+#include "handcalc/hand_calculation.h"
 #include "netlist/device_models.h"
 #include "netlist/render.h"
 #include "netlist/template.h"
@@ -11,10 +13,33 @@
 #include "run/sweep_setup.h"
 #include "sim/simulator.h"
 #include "sim/solver_aids.h"
+#include "sim/waveforms.h"
 #include "sweep/point.h"
 #include "sweep/sweep_spec.h"
 
 namespace zvsmap {
+
+/// One measured edge as the evaluator found it in the settled periods.
+struct FoundEdge {
+  size_t cell = 0;    ///< index into Template::cells
+  EdgeTiming timing;  ///< the commutation instants the edge was measured at
+};
+
+/// Everything one evaluation of a point knows, for the callers that need more
+/// than the result (waveform export, `zvsmap explain`): nothing here has to be
+/// computed again.
+struct PointEvaluation {
+  PointResult result;
+  bool resolved = false;  ///< parameters and period resolved (else `error` says why)
+  Diagnostic error;       ///< why the point could not be resolved
+  Variables params;       ///< every template parameter resolved (see ResolveParams)
+  double period_s = 0;    ///< the switching period
+  bool hand_ok = false;   ///< the hand calculation succeeded (else `hand_error`)
+  HandCalculation hand;   ///< the point's hand calculation (NaN where it failed)
+  Diagnostic hand_error;
+  std::vector<FoundEdge> edges;  ///< one per result.edges entry, same order (ok points)
+  Waveforms settled;             ///< the measured periods, when asked for and ok
+};
 
 /// Evaluates points of one sweep. Holds no simulator: the caller passes the
 /// one its process owns (a worker's ngspice, or a fake in tests).
@@ -42,13 +67,32 @@ class PointEvaluator {
   PointResult Evaluate(const Point& point, Simulator& simulator,
                        Waveforms* settled = nullptr) const;
 
+  /// Resolves the point's parameters and period and computes its hand
+  /// calculation, without simulating. False when the point cannot be
+  /// resolved (`out->error`); a failed hand calculation only clears hand_ok.
+  bool Prepare(const Point& point, PointEvaluation* out) const;
+
+  /// Simulates and measures a point Prepare has filled (`ev`), reusing its
+  /// resolution and hand calculation: fills result and edges, and `settled`
+  /// when `keep_waveforms`. A point Prepare failed on gets a failed result.
+  void Simulate(const Point& point, Simulator& simulator, bool keep_waveforms,
+                PointEvaluation* ev) const;
+
+  /// Prepare + Simulate.
+  PointEvaluation EvaluateFully(const Point& point, Simulator& simulator,
+                                bool keep_waveforms) const;
+
   /// The transient settings used for a resolved point with period `period_s`.
   TranSettings TranFor(const Variables& resolved, double period_s) const;
 
  private:
   /// One attempt at the whole pipeline with `simulator`'s solver aid (the
   /// ladder in Evaluate calls it once per rung).
-  PointResult EvaluateOnce(const Point& point, AidedSimulator& simulator, Waveforms* settled) const;
+  PointResult EvaluateOnce(const Point& point, AidedSimulator& simulator, PointEvaluation* ev,
+                           bool keep_waveforms) const;
+  /// Finds and measures every cell's edges in the measured run `out` and adds
+  /// the hand calculation; false (with the reason in `result`) on a missing edge.
+  bool MeasureCells(const SimulationOutput& out, PointEvaluation* ev, PointResult* result) const;
   /// RenderDeck plus the point's switch models (ApplyDevicesToDeck).
   bool RenderFor(const Point& point, const Variables& resolved, const TranSettings& tran,
                  Deck* deck, std::string* why) const;

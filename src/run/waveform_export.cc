@@ -8,11 +8,9 @@
 #include <sstream>
 #include <utility>
 
-#include "analysis/edge_finder.h"
 #include "core/atomic_file.h"
 #include "core/spice_number.h"
 #include "core/text.h"
-#include "netlist/render.h"
 #include "report/raw_writer.h"
 #include "report/waveform_plot.h"
 #include "run/point_evaluator.h"
@@ -27,12 +25,33 @@ std::string Safe(const std::string& s) {
   return out;
 }
 
-const EdgeMeasurement* FindMeasurement(const PointResult& r, const std::string& cell,
-                                       const std::string& edge) {
-  for (const auto& m : r.edges) {
-    if (m.cell == cell && m.edge == edge) return &m;
+// The title of an edge's plot: the point, the edge and what was measured there.
+std::string EdgePlotTitle(size_t index, const Point& point, const std::string& cell,
+                          const EdgeTiming& timing, const EdgeMeasurement& m) {
+  std::string title =
+      "point " + std::to_string(index) + " (" + point.Describe() + "), " + cell + " " + timing.edge;
+  title += ": ZVS " + std::string(ZvsClassName(m.zvs)) + ", v_turn_on " +
+           FormatEngineering(m.Get("v_turn_on_v"), 3) + " V";
+  double margin = m.Get("zvs_energy_margin");
+  if (std::isfinite(margin)) title += ", margin " + FormatEngineering(margin, 3);
+  return title;
+}
+
+// One SVG per edge the evaluation measured, at the instants it measured it.
+bool WriteEdgePlots(const PreparedSweep& sweep, const PointEvaluation& ev, const std::string& dir,
+                    const std::string& stem, WaveformExport* item) {
+  const Point& point = sweep.points[item->index];
+  for (size_t k = 0; k < ev.edges.size() && k < ev.result.edges.size(); ++k) {
+    const CellSpec& cell = sweep.tmpl.cells[ev.edges[k].cell];
+    const EdgeTiming& timing = ev.edges[k].timing;
+    std::string title = EdgePlotTitle(item->index, point, cell.name, timing, ev.result.edges[k]);
+    std::string name = stem + "_" + Safe(cell.name) + "_" + Safe(timing.edge) + ".svg";
+    Plot plot = EdgeWaveformPlot(ev.settled, cell, timing, title, name);
+    std::string path = (std::filesystem::path(dir) / name).string();
+    if (!WriteFileAtomically(path, plot.svg, &item->reason)) return false;
+    item->files.push_back(path);
   }
-  return nullptr;
+  return true;
 }
 
 }  // namespace
@@ -127,9 +146,9 @@ std::vector<WaveformExport> ExportWaveforms(const PreparedSweep& sweep,
       continue;
     }
     const Point& point = sweep.points[index];
-    Waveforms settled;
-    PointResult result = evaluator.Evaluate(point, simulator, &settled);
-    if (result.status != PointStatus::kOk || settled.time().empty()) {
+    PointEvaluation ev = evaluator.EvaluateFully(point, simulator, true);
+    const PointResult& result = ev.result;
+    if (result.status != PointStatus::kOk || ev.settled.time().empty()) {
       item.reason = std::string(PointStatusName(result.status)) + ": " + result.reason;
       out.push_back(item);
       continue;
@@ -137,7 +156,7 @@ std::vector<WaveformExport> ExportWaveforms(const PreparedSweep& sweep,
     std::string stem = "point_" + std::to_string(index);
     std::string raw_path = (std::filesystem::path(dir) / (stem + ".raw")).string();
     std::ostringstream raw;
-    WriteRawFile(raw, settled,
+    WriteRawFile(raw, ev.settled,
                  {"zvsmap point " + std::to_string(index) + ": " + point.Describe(), RawFileDate(),
                   "Transient Analysis"});
     if (!WriteFileAtomically(raw_path, raw.str(), &item.reason)) {
@@ -145,40 +164,7 @@ std::vector<WaveformExport> ExportWaveforms(const PreparedSweep& sweep,
       continue;
     }
     item.files.push_back(raw_path);
-
-    // The edges again, as the evaluator found them (same guard).
-    Variables resolved;
-    double period = 0;
-    Diagnostic d;
-    if (!ResolveParams(sweep.tmpl, point.values, &resolved, &d) ||
-        !ResolvePeriod(sweep.tmpl, resolved, &period, &d)) {
-      item.reason = d.Format();
-      out.push_back(item);
-      continue;
-    }
-    bool ok = true;
-    for (const CellSpec& cell : sweep.tmpl.cells) {
-      for (const EdgeTiming& timing : FindEdges(cell, settled, 0.02 * period)) {
-        std::string title = "point " + std::to_string(index) + " (" + point.Describe() + "), " +
-                            cell.name + " " + timing.edge;
-        if (const EdgeMeasurement* m = FindMeasurement(result, cell.name, timing.edge)) {
-          title += ": ZVS " + std::string(ZvsClassName(m->zvs)) + ", v_turn_on " +
-                   FormatEngineering(m->Get("v_turn_on_v"), 3) + " V";
-          double margin = m->Get("zvs_energy_margin");
-          if (std::isfinite(margin)) title += ", margin " + FormatEngineering(margin, 3);
-        }
-        std::string name = stem + "_" + Safe(cell.name) + "_" + Safe(timing.edge) + ".svg";
-        Plot plot = EdgeWaveformPlot(settled, cell, timing, title, name);
-        std::string path = (std::filesystem::path(dir) / name).string();
-        if (!WriteFileAtomically(path, plot.svg, &item.reason)) {
-          ok = false;
-          break;
-        }
-        item.files.push_back(path);
-      }
-      if (!ok) break;
-    }
-    item.ok = ok;
+    item.ok = WriteEdgePlots(sweep, ev, dir, stem, &item);
     out.push_back(item);
   }
   return out;

@@ -47,7 +47,9 @@ struct Synthetic {
   std::vector<Point> points;
   std::vector<PointResult> results;
 
-  ReportInput Input() const { return ReportInput{spec, tmpl, points, results}; }
+  /// The reports' input with grid, edges, margin and window derived, as
+  /// WriteReports hands it to each writer.
+  ReportBasis Input() const { return ReportBasis(ReportInput{spec, tmpl, points, results}); }
 };
 
 inline Synthetic MakeGrid(
