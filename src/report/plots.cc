@@ -191,7 +191,7 @@ Plot ZvsMapPlot(const ReportInput& input, const Grid& grid, const EdgeKey& key, 
       cell.zvs = e->zvs;
       cell.margin = MarginOf(*e, margin);
       cell.predicted_full = PredictedFull(*e);
-      cell.tip += std::string(ZvsClassName(e->zvs)) + ", margin " +
+      cell.tip += std::string(ZvsClassName(e->zvs)) + ", " + margin.label + " " +
                   FormatQuantity(cell.margin, margin_unit);
     }
   }
@@ -250,7 +250,8 @@ Plot ZvsMapPlot(const ReportInput& input, const Grid& grid, const EdgeKey& key, 
   svg.Text(kLeft + plot_w / 2, kTop + plot_h + 42, DimLabel(xd), "middle", 13);
   svg.Text(28, kTop + plot_h / 2, DimLabel(yd), "middle", 13, -90);
   svg.Text(kLeft + plot_w / 2, kTop + plot_h + 62,
-           "cell text: ZVS margin, " + AxisLabel(margin.description, margin_unit), "middle", 11);
+           "cell text: " + margin.label + ", " + AxisLabel(margin.description, margin_unit),
+           "middle", 11);
   MapLegend(&svg, kLeft + plot_w + 20, kTop + 14, cells, hand);
 
   Plot plot;
@@ -298,7 +299,8 @@ Plot MetricCurvePlot(const ReportInput& input, const Grid& grid, const EdgeKey& 
                            FormatQuantity(y, y_unit)});
   }
 
-  std::string y_label = AxisLabel(is_margin ? "ZVS margin: " + margin.description : column, y_unit);
+  std::string y_label =
+      AxisLabel(is_margin ? margin.label + ": " + margin.description : column, y_unit);
   std::string slice = SliceText(grid, fixed, {dim});
   std::string slice_title = SliceTitle(grid, fixed, {dim});
   std::string title = key.Label() + ": " + (is_margin ? "zvs_margin" : column) + " versus " +
