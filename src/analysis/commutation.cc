@@ -3,6 +3,7 @@
 #include <algorithm>
 #include <cmath>
 #include <limits>
+#include <utility>
 
 #include "netlist/cell_vectors.h"
 
@@ -49,7 +50,8 @@ Segment Slice(const std::vector<double>& t, const std::vector<double>& v, double
 
 double Trapezoid(const Segment& s) {
   double sum = 0;
-  for (size_t i = 1; i < s.t.size(); ++i) sum += 0.5 * (s.v[i] + s.v[i - 1]) * (s.t[i] - s.t[i - 1]);
+  for (size_t i = 1; i < s.t.size(); ++i)
+    sum += 0.5 * (s.v[i] + s.v[i - 1]) * (s.t[i] - s.t[i - 1]);
   return sum;
 }
 
@@ -69,6 +71,50 @@ double TimeBelow(const Segment& s, double level) {
 }
 
 double First(const std::vector<double>& v) { return v.empty() ? kNaN : v.front(); }
+
+// The set dead time against the stretch of the window in which the incoming
+// v_ds meets the criterion (see zvs_timing_margin_* in commutation.h).
+struct TimingMargins {
+  double early = kNaN, late = kNaN;
+};
+TimingMargins CriterionTiming(const std::vector<double>& t, const std::vector<double>& vds,
+                              double limit, double t_off, double t_on, double t_end) {
+  TimingMargins out;
+  if (!(t_end >= t_off) || t.empty()) return out;
+  // Stretches [a, b] of the window with vds <= limit (entries are falling
+  // crossings, exits rising ones); b NaN when still inside at t_end.
+  std::vector<std::pair<double, bool>> events;  // (time, is an entry)
+  for (double c : Crossings(t, vds, limit, false, t_off, t_end)) events.emplace_back(c, true);
+  for (double c : Crossings(t, vds, limit, true, t_off, t_end)) events.emplace_back(c, false);
+  std::sort(events.begin(), events.end());
+  std::vector<std::pair<double, double>> inside;
+  bool in = Interpolate(t, vds, t_off) <= limit;
+  double a = in ? t_off : kNaN;
+  for (const auto& [when, entry] : events) {
+    if (entry && !in) {
+      a = when;
+      in = true;
+    } else if (!entry && in) {
+      inside.emplace_back(a, when);
+      in = false;
+    }
+  }
+  if (in) inside.emplace_back(a, kNaN);
+  if (inside.empty()) return out;
+  // The stretch holding t_on, else the last one that ends before it, else the first after it.
+  const std::pair<double, double>* pick = nullptr;
+  for (const auto& s : inside) {
+    if (s.first <= t_on && (std::isnan(s.second) || s.second >= t_on)) pick = &s;
+  }
+  if (!pick) {
+    for (const auto& s : inside)
+      if (s.second < t_on) pick = &s;
+  }
+  if (!pick) pick = &inside.front();
+  out.early = t_on - pick->first;
+  out.late = pick->second - t_on;  // NaN when the stretch is open at the window's end
+  return out;
+}
 
 }  // namespace
 
@@ -241,6 +287,9 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
     if (std::isfinite(e_avail) && qoss * rail > 0) margin = (e_avail - e_need) / (qoss * rail);
   }
 
+  TimingMargins timing =
+      CriterionTiming(t, vds_in, limit, e.t_off_s, e.t_on_s, std::max(t_ch, e.t_on_s));
+
   EdgeMeasurement m;
   m.cell = cell.name;
   m.edge = e.edge;
@@ -277,6 +326,8 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
       {"e_available_j", e_avail},
       {"e_needed_j", e_need},
       {"zvs_energy_margin", margin},
+      {"zvs_timing_margin_early_s", timing.early},
+      {"zvs_timing_margin_late_s", timing.late},
   };
   return m;
 }

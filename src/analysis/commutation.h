@@ -16,10 +16,10 @@ namespace zvsmap {
 /// Resolved parameter values the measurement uses when the cell names them
 /// (`*@ cell ... high_vth=P low_vth=P inductance=P coss=P`); NaN = not named.
 struct EdgeParams {
-  double high_vth_v = std::numeric_limits<double>::quiet_NaN();  ///< high switch gate threshold
-  double low_vth_v = std::numeric_limits<double>::quiet_NaN();   ///< low switch gate threshold
+  double high_vth_v = std::numeric_limits<double>::quiet_NaN();    ///< high switch gate threshold
+  double low_vth_v = std::numeric_limits<double>::quiet_NaN();     ///< low switch gate threshold
   double inductance_h = std::numeric_limits<double>::quiet_NaN();  ///< commutating inductance
-  double coss_f = std::numeric_limits<double>::quiet_NaN();  ///< linear Coss of each switch
+  double coss_f = std::numeric_limits<double>::quiet_NaN();        ///< linear Coss of each switch
 };
 
 /// The parameters `cell` names, looked up in a point's resolved values.
@@ -96,10 +96,34 @@ EdgeParams EdgeParamsFor(const CellSpec& cell, const Variables& resolved);
 //                        Vo = average of node - rail_low over the data,
 //                        Qoss(V) = coss * V; <= 0 means the resonance alone
 //                        reaches the rail
-//   zvs_energy_margin    (e_available_j - e_needed_j) / (Qoss(V) * V), signed,
-//                        dimensionless: >= 0 the energy suffices
+//   zvs_energy_margin    energy margin: (e_available_j - e_needed_j) /
+//                        (Qoss(V) * V), signed, dimensionless. >= 0: the
+//                        commutated current's energy can carry the node to the
+//                        incoming rail at all, at SOME dead time. It does not
+//                        see the set dead time: a cell can show >= 0 and be
+//                        partial (dead time too short or past the ring-back);
+//                        the timing margins below see that
+//   zvs_timing_margin_early_s
+//                        timing margin, early side: t_on - t_a, where [t_a, t_b]
+//                        is the criterion stretch of the window: a maximal
+//                        interval of [t_off, max(t_ch, t_on)] with incoming
+//                        v_ds <= v_residual_limit_v; the one holding t_on, else
+//                        the last that ends before t_on, else the first after
+//                        it. >= 0: the node met the criterion before turn-on.
+//                        Equals t_dead_s - t_clamp_s when the node enters the
+//                        criterion once. NaN: it never meets it in the window
+//                        (the run cannot see when it would)
+//   zvs_timing_margin_late_s
+//                        timing margin, late side: t_b - t_on, >= 0: turn-on
+//                        came before v_ds rose out of the criterion again
+//                        (ring-back), < 0: it came that much too late. NaN: the
+//                        node was still within the criterion at the window's
+//                        end (the run cannot see the end) or never met it
 // ZVS class: full when v_turn_on_v <= v_residual_limit_v; partial when above
 // the limit but below half the rail; hard otherwise (unknown when NaN).
+// The class and the timing margins agree by construction: full <=>
+// zvs_timing_margin_early_s >= 0 and zvs_timing_margin_late_s is not < 0
+// (both read the same interpolated v_ds; equality within the interpolation).
 // ---------------------------------------------------------------------------
 
 /// Measures an edge found by FindEdges (see the definitions above).

@@ -192,7 +192,7 @@ Plot ZvsMapPlot(const ReportBasis& input, const EdgeKey& key, size_t x_dim, size
       cell.zvs = e->zvs;
       cell.margin = MarginOf(*e, margin);
       cell.predicted_full = PredictedFull(*e);
-      cell.tip += std::string(ZvsClassName(e->zvs)) + ", margin " +
+      cell.tip += std::string(ZvsClassName(e->zvs)) + ", " + margin.label + " " +
                   FormatQuantity(cell.margin, margin_unit);
     }
   }
@@ -251,7 +251,8 @@ Plot ZvsMapPlot(const ReportBasis& input, const EdgeKey& key, size_t x_dim, size
   svg.Text(kLeft + plot_w / 2, kTop + plot_h + 42, DimLabel(xd), "middle", 13);
   svg.Text(28, kTop + plot_h / 2, DimLabel(yd), "middle", 13, -90);
   svg.Text(kLeft + plot_w / 2, kTop + plot_h + 62,
-           "cell text: ZVS margin, " + AxisLabel(margin.description, margin_unit), "middle", 11);
+           "cell text: " + margin.label + ", " + AxisLabel(margin.description, margin_unit),
+           "middle", 11);
   MapLegend(&svg, kLeft + plot_w + 20, kTop + 14, cells, hand);
 
   Plot plot;
@@ -300,7 +301,8 @@ Plot MetricCurvePlot(const ReportBasis& input, const EdgeKey& key, size_t dim,
                            FormatQuantity(y, y_unit)});
   }
 
-  std::string y_label = AxisLabel(is_margin ? "ZVS margin: " + margin.description : column, y_unit);
+  std::string y_label =
+      AxisLabel(is_margin ? margin.label + ": " + margin.description : column, y_unit);
   std::string slice = SliceText(grid, fixed, {dim});
   std::string slice_title = SliceTitle(grid, fixed, {dim});
   std::string title = key.Label() + ": " + (is_margin ? "zvs_margin" : column) + " versus " +

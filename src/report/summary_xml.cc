@@ -5,8 +5,8 @@
 #include <cstdio>
 #include <limits>
 
-#include "report/zvs_boundary.h"
 #include "report/solver_aid_use.h"
+#include "report/zvs_boundary.h"
 
 namespace zvsmap {
 
@@ -204,7 +204,7 @@ void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerd
   m.append_attribute("source") = margin.column.empty() ? "voltage-difference" : "column";
   m.append_attribute("definition") = margin.description.c_str();
   if (!margin.unit.empty()) m.append_attribute("unit") = margin.unit.c_str();
-  m.append_attribute("positive-means") = "turn-on within the ZVS criterion";
+  m.append_attribute("positive-means") = margin.positive_means.c_str();
 
   for (const EdgeKey& key : input.edges) {
     AddEdge(root, input, grid, key, margin, input.window);

@@ -124,8 +124,19 @@ MarginSource ChooseMargin(const std::vector<PointResult>& results) {
   if (source.column.empty()) {
     source.description = "v_residual_limit_v - v_turn_on_v";
     source.unit = "V";
+    source.label = "ZVS margin (residual voltage)";
+    source.positive_means = "turn-on within the ZVS criterion";
+  } else if (source.column.rfind("zvs_energy_margin", 0) == 0) {
+    source.description = source.column;
+    source.label = "energy margin (any dead time)";
+    source.positive_means =
+        "the commutated current's energy can bring the node to the rail at some dead time; "
+        "the set dead time is not considered (see zvs_timing_margin_early_s and "
+        "zvs_timing_margin_late_s)";
   } else {
     source.description = source.column;
+    source.label = "ZVS margin";
+    source.positive_means = "the column " + source.column + " is at least 0";
   }
   return source;
 }

@@ -37,11 +37,16 @@ struct EdgeKey {
 /// The margin the summary, the plots and `metric="zvs_margin"` use: the energy
 /// margin column (name starting "zvs_energy_margin", else "zvs_margin") when
 /// the results have one, else v_residual_limit_v - v_turn_on_v (volts).
-/// Positive means ZVS (enough energy, or a turn-on within the criterion).
+/// What a positive value means depends on the source (`positive_means`): the
+/// energy margin says the current's energy can bring the node to the rail at
+/// some dead time (it does not see the set one); the voltage difference says
+/// the turn-on was within the criterion.
 struct MarginSource {
-  std::string column;       ///< the column used, or "" for the voltage difference
-  std::string description;  ///< e.g. "v_residual_limit_v - v_turn_on_v"
-  std::string unit;         ///< "V", or "" when read from a column (unit in its name)
+  std::string column;          ///< the column used, or "" for the voltage difference
+  std::string description;     ///< e.g. "v_residual_limit_v - v_turn_on_v"
+  std::string unit;            ///< "V", or "" when read from a column (unit in its name)
+  std::string label;           ///< short name for plots, e.g. "energy margin (any dead time)"
+  std::string positive_means;  ///< what a value >= 0 says, for summary.xml
 };
 
 /// The sweep's grid and each point's place on it.

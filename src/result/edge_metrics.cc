@@ -19,13 +19,29 @@ const char* ZvsClassName(ZvsClass c) {
 }
 
 const std::vector<std::string>& EdgeMetricNames() {
-  static const std::vector<std::string> kNames = {
-      "rail_v",           "i_commutated_a",     "t_dead_s",       "v_turn_on_v",
-      "v_at_vth_v",       "v_residual_limit_v", "t_transition_s", "t_clamp_s",
-      "t_zvs_s",          "dvdt_peak_v_per_s",  "t_reverse_s",    "v_ds_min_v",
-      "ringback",         "t_ringback_s",       "v_ringback_v",   "e_on_j",
-      "e_off_j",          "e_cap_est_j",        "e_available_j",  "e_needed_j",
-      "zvs_energy_margin"};
+  static const std::vector<std::string> kNames = {"rail_v",
+                                                  "i_commutated_a",
+                                                  "t_dead_s",
+                                                  "v_turn_on_v",
+                                                  "v_at_vth_v",
+                                                  "v_residual_limit_v",
+                                                  "t_transition_s",
+                                                  "t_clamp_s",
+                                                  "t_zvs_s",
+                                                  "dvdt_peak_v_per_s",
+                                                  "t_reverse_s",
+                                                  "v_ds_min_v",
+                                                  "ringback",
+                                                  "t_ringback_s",
+                                                  "v_ringback_v",
+                                                  "e_on_j",
+                                                  "e_off_j",
+                                                  "e_cap_est_j",
+                                                  "e_available_j",
+                                                  "e_needed_j",
+                                                  "zvs_energy_margin",
+                                                  "zvs_timing_margin_early_s",
+                                                  "zvs_timing_margin_late_s"};
   return kNames;
 }
 

@@ -117,6 +117,134 @@ TEST_F(CommutationTest, FallingEdgeThatStallsIsPartialWithoutTransitionTime) {
   EXPECT_EQ(hard_check.zvs, ZvsClass::kPartial);
 }
 
+// Timing margins on the fixture's linear ramps: the values follow from the
+// ramp's equation; the ramps' knees lie on the 0.1 ns grid, the command
+// steps do not: their 0.5 crossing is interpolated half a sample (0.05 ns)
+// before the step. Class and margin agree (definition in commutation.h).
+TEST_F(CommutationTest, TimingMarginsOfTheRampsAreExact) {
+  auto edges = FindEdges(cell_, waves_, 0.02e-6);
+  ZvsCriterion crit;  // 10 % of the rail: 4.8 V
+  // Rising 0 -> 48 V in 20 ns: the high switch's v_ds falls to 4.8 V after
+  // 0.9 x 20 = 18 ns after the step; turn-on 50 ns after it. It stays
+  // clamped past turn-on: the run cannot see the late end.
+  EdgeMeasurement up = MeasureEdge(cell_, waves_, edges[0], crit);
+  EXPECT_NEAR(up.Get("zvs_timing_margin_early_s"), (50e-9 - 0.05e-9) - 18e-9, 1e-12);
+  EXPECT_NEAR(up.Get("t_dead_s") - up.Get("t_clamp_s"), up.Get("zvs_timing_margin_early_s"), 1e-15);
+  EXPECT_TRUE(std::isnan(up.Get("zvs_timing_margin_late_s")));
+  EXPECT_EQ(up.zvs, ZvsClass::kFull);
+  // Falling edge stalls at 14.4 V > 4.8 V: never meets the criterion.
+  EdgeMeasurement down = MeasureEdge(cell_, waves_, edges[1], crit);
+  EXPECT_TRUE(std::isnan(down.Get("zvs_timing_margin_early_s")));
+  EXPECT_TRUE(std::isnan(down.Get("zvs_timing_margin_late_s")));
+  EXPECT_NE(down.zvs, ZvsClass::kFull);
+  // With a 20 V limit it does: 48 - 33.6 V * t / 40 ns = 20 V at t = 33.33 ns.
+  crit.kind = ZvsCriterion::Kind::kAbsolute;
+  crit.value = 20;
+  down = MeasureEdge(cell_, waves_, edges[1], crit);
+  EXPECT_NEAR(down.Get("zvs_timing_margin_early_s"), (50e-9 - 0.05e-9) - 28.0 / 33.6 * 40e-9,
+              1e-12);
+  EXPECT_EQ(down.zvs, ZvsClass::kFull);
+}
+
+// A rising edge that rings back before turn-on: 0 -> 48 V in 20 ns after
+// t_off = 100 ns, held until 150 ns, back down to 30 V by 170 ns; turn-on
+// at 180 ns. The energy view cannot see this; the late margin does.
+TEST(TimingMarginTest, RingBackBeforeTurnOnIsLateNotEarly) {
+  CellSpec cell;
+  cell.name = "leg";
+  cell.node = "sw";
+  cell.rail_high = "in";
+  cell.rail_low = "0";
+  cell.current = "vsense";
+  cell.high_cmd = "ch";
+  cell.low_cmd = "cl";
+  std::vector<double> t, sw, in, i, ch, cl;
+  for (int k = 0; k <= 5000; ++k) {
+    double x = k * 1e-10;  // 0 .. 500 ns
+    t.push_back(x);
+    in.push_back(48);
+    i.push_back(-3.0);
+    ch.push_back(x >= 180e-9 && x < 400e-9 ? 1 : 0);
+    cl.push_back(x < 100e-9 ? 1 : 0);
+    double v = x < 100e-9   ? 0
+               : x < 120e-9 ? 48 * (x - 100e-9) / 20e-9
+               : x < 150e-9 ? 48
+               : x < 170e-9 ? 48 - 18 * (x - 150e-9) / 20e-9
+                            : 30;
+    sw.push_back(v);
+  }
+  Waveforms waves;
+  waves.SetTime(t);
+  waves.Set("v(sw)", sw);
+  waves.Set("v(in)", in);
+  waves.Set("i(vsense)", i);
+  waves.Set("v(ch)", ch);
+  waves.Set("v(cl)", cl);
+  EdgeTiming e{"high_on", true, 100e-9, 180e-9, 400e-9};
+  EdgeMeasurement m = MeasureEdge(cell, waves, e, ZvsCriterion());
+  // v_ds = 18 V at turn-on: partial (above 4.8 V, below 24 V).
+  EXPECT_EQ(m.zvs, ZvsClass::kPartial);
+  // In the criterion from 118 ns (0.9 x 20 ns after t_off) until the node
+  // falls below 43.2 V: 150 ns + 4.8/18 x 20 ns = 155.33 ns.
+  EXPECT_NEAR(m.Get("zvs_timing_margin_early_s"), 80e-9 - 18e-9, 1e-12);
+  EXPECT_NEAR(m.Get("zvs_timing_margin_late_s"), (50e-9 + 4.8 / 18 * 20e-9) - 80e-9, 1e-12);
+  // Turn-on at 140 ns, within the criterion: full, 22 ns early margin. The
+  // window ends at turn-on (no gate threshold named), so the later exit is
+  // not seen: late margin NaN.
+  e.t_on_s = 140e-9;
+  m = MeasureEdge(cell, waves, e, ZvsCriterion());
+  EXPECT_EQ(m.zvs, ZvsClass::kFull);
+  EXPECT_NEAR(m.Get("zvs_timing_margin_early_s"), 22e-9, 1e-12);
+  EXPECT_TRUE(std::isnan(m.Get("zvs_timing_margin_late_s")));
+}
+
+// Class and timing margins never disagree, over dead times that cut the
+// ramp, the clamp and the ring-back of the waveform above (definition in
+// commutation.h; the criterion and the class read the same v_ds).
+TEST(TimingMarginTest, ClassAgreesWithTheMarginsAtEveryDeadTime) {
+  CellSpec cell;
+  cell.name = "leg";
+  cell.node = "sw";
+  cell.rail_high = "in";
+  cell.rail_low = "0";
+  cell.current = "vsense";
+  cell.high_cmd = "ch";
+  cell.low_cmd = "cl";
+  std::vector<double> t, sw, in, i, ch, cl;
+  for (int k = 0; k <= 5000; ++k) {
+    double x = k * 1e-10;
+    t.push_back(x);
+    in.push_back(48);
+    i.push_back(-3.0);
+    ch.push_back(0);
+    cl.push_back(x < 100e-9 ? 1 : 0);
+    sw.push_back(x < 100e-9   ? 0
+                 : x < 120e-9 ? 48 * (x - 100e-9) / 20e-9
+                 : x < 150e-9 ? 48
+                 : x < 170e-9 ? 48 - 18 * (x - 150e-9) / 20e-9
+                              : 30);
+  }
+  Waveforms waves;
+  waves.SetTime(t);
+  waves.Set("v(sw)", sw);
+  waves.Set("v(in)", in);
+  waves.Set("i(vsense)", i);
+  waves.Set("v(ch)", ch);
+  waves.Set("v(cl)", cl);
+  int full = 0;
+  for (double dead = 1.05e-9; dead < 95e-9; dead += 1e-9) {
+    EdgeTiming e{"high_on", true, 100e-9, 100e-9 + dead, 400e-9};
+    EdgeMeasurement m = MeasureEdge(cell, waves, e, ZvsCriterion());
+    double early = m.Get("zvs_timing_margin_early_s");
+    double late = m.Get("zvs_timing_margin_late_s");
+    bool margins_say_full = early >= 0 && !(late < 0);
+    EXPECT_EQ(m.zvs == ZvsClass::kFull, margins_say_full) << "dead time " << dead;
+    full += m.zvs == ZvsClass::kFull;
+  }
+  // 18 ns .. 55.33 ns meets the criterion: dead times 18.05 .. 55.05 ns.
+  EXPECT_EQ(full, 38);
+}
+
 TEST(CrossingsTest, InterpolatesLinearly) {
   std::vector<double> t = {0, 1, 2, 3};
   std::vector<double> v = {0, 2, 0, 2};

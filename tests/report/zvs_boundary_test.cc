@@ -30,6 +30,23 @@ TEST(ZvsBoundaryTest, OneDimensionLinearMarginGivesExactZero) {
   EXPECT_TRUE(FindBoundaries(grid, s.results, {"leg", "low_on"}, margin).empty());
 }
 
+// The words summary.xml and the map give each margin: the energy margin
+// says it does not consider the set dead time; the voltage difference is
+// about the turn-on itself (definitions in src/analysis/commutation.h).
+TEST(ZvsBoundaryTest, MarginWordsSayWhatEachMeasures) {
+  auto s = MakeGrid({{"x", {0, 1}}}, [](const auto& v) { return v[0] - 0.5; });
+  MarginSource voltage = ChooseMargin(s.results);
+  EXPECT_EQ(voltage.positive_means, "turn-on within the ZVS criterion");
+  for (PointResult& r : s.results) {
+    for (EdgeMeasurement& e : r.edges) e.metrics.push_back({"zvs_energy_margin", 0.3});
+  }
+  MarginSource energy = ChooseMargin(s.results);
+  EXPECT_EQ(energy.column, "zvs_energy_margin");
+  EXPECT_EQ(energy.label, "energy margin (any dead time)");
+  EXPECT_NE(energy.positive_means.find("at some dead time"), std::string::npos);
+  EXPECT_NE(energy.positive_means.find("set dead time is not considered"), std::string::npos);
+}
+
 TEST(ZvsBoundaryTest, FallingMarginHasZvsBelow) {
   // margin = 1 - x/4: zero at x = 4 exactly (between 3 and 5 on this grid).
   auto s = MakeGrid({{"x", {1, 3, 5, 7}}}, [](const auto& v) { return 1 - v[0] / 4; });
