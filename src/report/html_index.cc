@@ -156,6 +156,7 @@ p.hint { color: #555; font-size: 0.9em; }
   h +=
       "<p class=\"verdict " + verdict_class + "\" id=\"verdict\">" + HtmlEscape(verdict) + "</p>\n";
 
+  h += HtmlAtAGlance(input);
   h += "<h2>Requirements</h2>\n";
   if (verdicts.empty()) {
     h += "<p>The sweep file declares no requirements.</p>\n";

@@ -304,6 +304,63 @@ std::string HtmlEdgeSections(const ReportInput& input, const std::vector<Plot>& 
   return h;
 }
 
+std::string HtmlAtAGlance(const ReportInput& input) {
+  std::vector<EdgeKey> keys = MeasuredEdges(input.results);
+  if (keys.empty()) return "";
+  Grid grid = BuildGrid(input.spec, input.points);
+  MarginSource margin = ChooseMargin(input.results);
+  std::string unit = margin.column.empty() ? margin.unit : MetricUnit(margin.column);
+  WindowColumns w = FindWindowColumns(input.results);
+  std::string h =
+      "<h2 id=\"at-a-glance\">At a glance</h2>\n" +
+      TableStart("glance",
+                 {"edge", "full ZVS at", "lowest margin", "where", "dead time set",
+                  "ZVS from (longest window start)", "largest hand-calculation difference"},
+                 false);
+  for (const EdgeKey& key : keys) {
+    int full = 0, measured = 0;
+    double worst = INFINITY, largest = NAN;
+    size_t worst_at = 0;
+    std::string largest_what;
+    for (size_t i = 0; i < input.results.size() && i < input.points.size(); ++i) {
+      const PointResult& r = input.results[i];
+      const EdgeMeasurement* e = r.status == PointStatus::kOk ? FindEdge(r, key) : nullptr;
+      if (!e) continue;
+      ++measured;
+      full += e->zvs == ZvsClass::kFull ? 1 : 0;
+      double m = MarginOf(*e, margin);
+      if (std::isfinite(m) && m < worst) worst = m, worst_at = i;
+      for (const Comparison& c : e->comparisons) {
+        if (!c.Paired() || c.metric == "zvs_full" || !std::isfinite(c.relative_difference))
+          continue;
+        if (std::isnan(largest) || std::fabs(c.relative_difference) > std::fabs(largest)) {
+          largest = c.relative_difference;
+          largest_what = c.Name();
+        }
+      }
+    }
+    Range dead = RangeOf(input, key, "t_dead_s"), start = RangeOf(input, key, w.start);
+    std::string dead_text =
+        dead.n == 0          ? "-"
+        : dead.lo == dead.hi ? FormatQuantity(dead.lo, "s")
+                             : FormatQuantity(dead.lo, "s") + " to " + FormatQuantity(dead.hi, "s");
+    std::string diff = "-";
+    if (std::isfinite(largest)) {
+      char rel[32];
+      std::snprintf(rel, sizeof rel, "%+.1f %%", 100 * largest);
+      diff = std::string(rel) + " (" + largest_what + ")";
+    }
+    std::string anchor = "#edge-" + key.cell + "-" + key.edge;
+    h += "<tr><td><a href=\"" + HtmlEscape(anchor) + "\">" + HtmlEscape(key.Label()) + "</a></td>" +
+         Td(std::to_string(full) + " of " + std::to_string(measured) + " points") +
+         Num(std::isfinite(worst) ? worst : NAN, unit) +
+         (std::isfinite(worst) ? Td(OperatingPointText(grid, worst_at, input.points[worst_at]))
+                               : Td("-")) +
+         Td(dead_text) + Num(start.n ? start.hi : NAN, "s") + Td(diff) + "</tr>\n";
+  }
+  return h + kTableEnd;
+}
+
 std::string HtmlFailedPoints(const ReportInput& input) {
   Grid grid = BuildGrid(input.spec, input.points);
   std::string rows;

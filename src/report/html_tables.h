@@ -21,6 +21,12 @@ namespace zvsmap {
 std::string HtmlEdgeSections(const ReportInput& input, const std::vector<Plot>& plots,
                              std::vector<bool>* placed);
 
+/// One row per measured edge (id "at-a-glance"): at how many points full ZVS
+/// holds, the lowest margin and where, the dead time set, the longest window
+/// start (the shortest dead time that reaches ZVS wherever it is reached) and
+/// the largest hand-calculation difference; "" when no edge was measured.
+std::string HtmlAtAGlance(const ReportInput& input);
+
 /// The failed and unsettled points with their reasons, how settling was
 /// attempted and the solver aid the point last ran with (id "failed-points");
 /// a sentence when every point ran.

@@ -94,6 +94,8 @@ TEST(HtmlTablesTest, DisagreementsShowTheWorstPointPerPrediction) {
             std::string::npos)
       << edges;
   EXPECT_NE(edges.find("-16.7 %"), std::string::npos);
+  std::string glance = HtmlAtAGlance(s.Input());
+  EXPECT_NE(glance.find("-16.7 % (t_transition_s__pred)"), std::string::npos) << glance;
   EXPECT_NE(edges.find("1 of 3 points"), std::string::npos);
 }
 
