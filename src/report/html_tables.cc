@@ -329,7 +329,10 @@ std::string HtmlAtAGlance(const ReportInput& input) {
       ++measured;
       full += e->zvs == ZvsClass::kFull ? 1 : 0;
       double m = MarginOf(*e, margin);
-      if (std::isfinite(m) && m < worst) worst = m, worst_at = i;
+      if (std::isfinite(m) && m < worst) {
+        worst = m;
+        worst_at = i;
+      }
       for (const Comparison& c : e->comparisons) {
         if (!c.Paired() || c.metric == "zvs_full" || !std::isfinite(c.relative_difference))
           continue;
