@@ -4,6 +4,71 @@
 
 namespace zvsmap {
 
+namespace {
+
+// Sorts every table.sortable by a clicked (or Enter/Space) header: by the
+// cells' data-value as a number when present, else their text (digits by
+// value); a click cycles ascending, descending and the report's own order.
+// Empty values ("n/a", "-") sort last either way. Inline: the page stays one
+// offline file.
+constexpr const char* kSortScript = R"(<script>
+(function () {
+  function key(row, c) {
+    var td = row.cells[c];
+    if (!td) return null;
+    var v = td.getAttribute("data-value");
+    if (v !== null) return v === "" || isNaN(Number(v)) ? null : Number(v);
+    var t = td.textContent.trim();
+    return t === "" || t === "-" || t === "n/a" ? null : t;
+  }
+  function compare(a, b) {
+    if (typeof a === "number" && typeof b === "number") return a - b;
+    return String(a).localeCompare(String(b), undefined, {numeric: true});
+  }
+  function order(row) { return Number(row.getAttribute("data-order")); }
+  function sortBy(table, c) {
+    var heads = table.tHead.rows[0].cells, body = table.tBodies[0];
+    var state = heads[c].getAttribute("aria-sort");
+    var next = state === "ascending" ? "descending" : state === "descending" ? "none" : "ascending";
+    var sign = next === "descending" ? -1 : 1;
+    var rows = Array.prototype.slice.call(body.rows);
+    rows.sort(function (x, y) {
+      if (next !== "none") {
+        var a = key(x, c), b = key(y, c);
+        if (a === null || b === null) {
+          if (a !== b) return a === null ? 1 : -1;
+        } else {
+          var r = sign * compare(a, b);
+          if (r) return r;
+        }
+      }
+      return order(x) - order(y);
+    });
+    for (var k = 0; k < heads.length; k++) heads[k].removeAttribute("aria-sort");
+    if (next !== "none") heads[c].setAttribute("aria-sort", next);
+    for (k = 0; k < rows.length; k++) body.appendChild(rows[k]);
+  }
+  var tables = document.querySelectorAll("table.sortable");
+  Array.prototype.forEach.call(tables, function (table) {
+    if (!table.tHead || !table.tBodies.length) return;
+    Array.prototype.forEach.call(table.tBodies[0].rows, function (row, i) {
+      row.setAttribute("data-order", i);
+    });
+    Array.prototype.forEach.call(table.tHead.rows[0].cells, function (th, c) {
+      th.tabIndex = 0;
+      th.title = "Sort by this column; again to reverse, a third time for the report's order";
+      th.addEventListener("click", function () { sortBy(table, c); });
+      th.addEventListener("keydown", function (e) {
+        if (e.key === "Enter" || e.key === " ") { e.preventDefault(); sortBy(table, c); }
+      });
+    });
+  });
+})();
+</script>
+)";
+
+}  // namespace
+
 std::string HtmlEscape(const std::string& text) {
   std::string out;
   for (char c : text) {
@@ -71,6 +136,11 @@ pre { margin: 0; white-space: pre-wrap; font-size: 0.85em; }
 td.num { text-align: right; font-variant-numeric: tabular-nums; white-space: nowrap; }
 section.edge { border-top: 2px solid #ccc; margin-top: 2em; }
 .slot { color: #555; font-style: italic; }
+table.sortable th { cursor: pointer; user-select: none; }
+table.sortable th::after { content: " \2195"; color: #999; }
+table.sortable th[aria-sort="ascending"]::after { content: " \25B2"; color: #222; }
+table.sortable th[aria-sort="descending"]::after { content: " \25BC"; color: #222; }
+p.hint { color: #555; font-size: 0.9em; }
 </style>
 </head>
 <body>
@@ -86,6 +156,7 @@ section.edge { border-top: 2px solid #ccc; margin-top: 2em; }
   h +=
       "<p class=\"verdict " + verdict_class + "\" id=\"verdict\">" + HtmlEscape(verdict) + "</p>\n";
 
+  h += HtmlAtAGlance(input);
   h += "<h2>Requirements</h2>\n";
   if (verdicts.empty()) {
     h += "<p>The sweep file declares no requirements.</p>\n";
@@ -106,17 +177,29 @@ section.edge { border-top: 2px solid #ccc; margin-top: 2em; }
     h += "</table>\n";
   }
 
-  h += HtmlEdgeSections(input);
+  std::vector<bool> placed;
+  std::string edges = HtmlEdgeSections(input, plots, &placed);
+  if (!edges.empty()) {
+    h += "<p class=\"hint\">Click a column header to sort its table; click again to reverse, a "
+         "third time for the report's own order.</p>\n";
+  }
+  h += edges;
   h += HtmlRecommendedDeadTime(input);
   h += HtmlFailedPoints(input);
+  h += HtmlSolverAids(input);
   h += HtmlSettings(input);
 
   h += "<h2>Plots</h2>\n";
   if (plots.empty()) h += "<p>No plots: the sweep has no swept axis or no measured edge.</p>\n";
-  for (const Plot& p : plots) {
+  bool any_left = false;
+  for (size_t k = 0; k < plots.size(); ++k) {
+    if (placed[k]) continue;
+    const Plot& p = plots[k];
+    any_left = true;
     h += "<figure><img src=\"" + HtmlEscape(p.file) + "\" alt=\"" + HtmlEscape(p.caption) +
          "\"><figcaption>" + HtmlEscape(p.caption) + "</figcaption></figure>\n";
   }
+  if (!plots.empty() && !any_left) h += "<p>Every plot is shown in its edge's section above.</p>\n";
 
   h += "<h2>Files</h2>\n<ul>\n";
   for (const std::string& f : files) {
@@ -133,9 +216,9 @@ test or service them.</p>
 never replace, the judgement of a qualified engineer, measurements on real hardware, and the
 codes, standards and licensed practice that apply where the equipment is built and used.</p>
 </div>
-</body>
-</html>
 )";
+  h += kSortScript;
+  h += "</body>\n</html>\n";
   return h;
 }
 

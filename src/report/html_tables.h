@@ -4,19 +4,37 @@
 #pragma once
 
 #include <string>
+#include <vector>
 
+#include "report/plots.h"
 #include "report/report_set.h"
 
 namespace zvsmap {
 
-/// One <section> per measured edge (id "edge-CELL-EDGE") with its tables.
-/// Every number cell carries the raw value in `data-value` (9 significant
-/// digits, as summary.xml writes them) beside the text with units.
-std::string HtmlEdgeSections(const ReportBasis& input);
+/// One <section> per measured edge (id "edge-CELL-EDGE") with its tables and,
+/// from `plots`, the edge's maps ("map_CELL_EDGE…") and dead-time chart
+/// ("deadtime_CELL_EDGE.svg"); `placed` (sized like `plots`) marks the plots
+/// shown there. Every number cell carries the raw value in `data-value` (9
+/// significant digits, as summary.xml writes them) beside the text with
+/// units; operating points carry the point's index, so sorting by them gives
+/// the sweep's order. Tables of several rows have class "sortable".
+std::string HtmlEdgeSections(const ReportBasis& input, const std::vector<Plot>& plots,
+                             std::vector<bool>* placed);
 
-/// The failed and unsettled points with their reasons and how settling was
-/// attempted (id "failed-points"); a sentence when every point ran.
+/// One row per measured edge (id "at-a-glance"): at how many points full ZVS
+/// holds, the lowest margin and where, the dead time set, the longest window
+/// start (the shortest dead time that reaches ZVS wherever it is reached) and
+/// the largest hand-calculation difference; "" when no edge was measured.
+std::string HtmlAtAGlance(const ReportInput& input);
+
+/// The failed and unsettled points with their reasons, how settling was
+/// attempted and the solver aid the point last ran with (id "failed-points");
+/// a sentence when every point ran.
 std::string HtmlFailedPoints(const ReportInput& input);
+
+/// How many points needed each solver aid of the convergence ladder (id
+/// "solver-aids"): a sentence, and a table when any aid was used.
+std::string HtmlSolverAids(const ReportInput& input);
 
 /// The fixed parameters, the derived ones, the dead-time parameters each cell
 /// uses (from the sweep or the template's default) and the simulation

@@ -1,14 +1,21 @@
 #!/usr/bin/env python3
 """Checks a report page as headless Chromium rendered it against summary.xml.
 
-  browser_report_check.py DOM.html SUMMARY.xml
+  browser_report_check.py DOM.html SUMMARY.xml [UNITS]
 
 DOM.html is Chromium's --dump-dom of index.html with the probe script of
-browser_report_test.sh (body data-images="loaded/total", data-errors).
-Checks: every image decoded, no console error or failed load, and the tables
+browser_report_test.sh (body data-images="loaded/total", data-errors, and
+data-sort: a sortable table's column after one, two and three header clicks).
+Checks: every image decoded, no console error or failed load; the tables
 hold summary.xml's numbers: per edge the boundary values, the worst margin,
-and the number of failed points. Exit 0 when all hold, 1 otherwise.
+and the number of failed points; a header click sorts ascending, then
+descending, then restores the report's order; every operating point reads
+"name = value unit, ..." (no "L=3.3u"), and each symbol of the
+comma-separated UNITS (e.g. "µH,A") occurs among them. Exit 0 when all hold,
+1 otherwise.
 """
+import json
+import re
 import sys
 import xml.etree.ElementTree as ET
 from html.parser import HTMLParser
@@ -23,6 +30,8 @@ class Tables(HTMLParser):
         self.section = None
         self.table = None
         self.tables = {}  # (section id, table class) -> rows of [(text, data-value)]
+        self.headers = {}  # (section id, table class) -> header texts
+        self.sortable = 0
         self.cell = None
         self.ids = set()
 
@@ -35,7 +44,12 @@ class Tables(HTMLParser):
         elif tag == "section":
             self.section = a.get("id")
         elif tag == "table":
-            self.table = self.tables.setdefault((self.section, a.get("class")), [])
+            classes = (a.get("class") or "").split()
+            self.sortable += "sortable" in classes
+            name = (self.section, classes[0] if classes else None)
+            self.table = self.tables.setdefault(name, [])
+            self.headers.setdefault(name, [])
+            self.current = name
         elif tag == "tr" and self.table is not None:
             self.table.append([])
         elif tag in ("td", "th") and self.table is not None:
@@ -45,6 +59,8 @@ class Tables(HTMLParser):
         if tag in ("td", "th") and self.cell is not None:
             if self.cell[2] == "td":
                 self.table[-1].append((self.cell[0].strip(), self.cell[1]))
+            else:
+                self.headers[self.current].append(self.cell[0].strip())
             self.cell = None
         elif tag == "table":
             self.table = None
@@ -60,7 +76,50 @@ def close(a, b):
     return abs(a - b) <= 1e-6 * max(1.0, abs(a), abs(b))
 
 
-def main(dom_path, summary_path):
+def check_sorting(page, problems):
+    """The probe's three clicks: ascending, descending, the report's order."""
+    if not page.sortable:
+        return 0
+    if not page.body.get("data-sort"):
+        problems.append("sortable tables but the probe found no column to sort")
+        return 0
+    r = json.loads(page.body["data-sort"])
+    asc = [float(v) for v in r["asc"] if v not in (None, "")]
+    desc = [float(v) for v in r["desc"] if v not in (None, "")]
+    what = "sorting %s by '%s'" % (r["table"], r["column"])
+    if asc != sorted(asc) or r.get("ascState") != "ascending":
+        problems.append("%s: first click not ascending: %s" % (what, asc))
+    if desc != sorted(desc, reverse=True):
+        problems.append("%s: second click not descending: %s" % (what, desc))
+    if r["ascOrder"] == r["before"] and r["descOrder"] == r["before"]:
+        problems.append("%s: the row order never changed" % what)
+    if r["after"] != r["before"]:
+        problems.append("%s: third click did not restore the order (%s, was %s)"
+                        % (what, r["after"], r["before"]))
+    return 1
+
+
+OPERATING_POINT = re.compile(r"^[A-Za-z_]\w* = [^,=]+(, [A-Za-z_]\w* = [^,=]+)*$")
+
+
+def check_units(page, units, problems):
+    """Operating points as 'name = value unit'; the expected symbols occur."""
+    texts = []
+    for name, header in page.headers.items():
+        if "operating point" not in header:
+            continue
+        col = header.index("operating point")
+        texts += [row[col][0] for row in page.tables[name] if len(row) > col]
+    for t in texts:
+        if not OPERATING_POINT.match(t) and t != "the single point":
+            problems.append("operating point not as 'name = value unit': %r" % t)
+    for unit in filter(None, units.split(",")):
+        if not any(re.search(r"\d %s(,|$)" % re.escape(unit), t) for t in texts):
+            problems.append("no operating point in %s" % unit)
+    return len(texts)
+
+
+def main(dom_path, summary_path, units=""):
     page = Tables()
     page.feed(open(dom_path, encoding="utf-8").read())
     problems = []
@@ -99,12 +158,15 @@ def main(dom_path, summary_path):
                 problems.append("%s worst point: summary %s, table %s"
                                 % (sid, worst.get("point"), rows[0][0][0]))
             checked += 1
+    sorted_tables = check_sorting(page, problems)
+    points = check_units(page, units, problems)
     for p in problems:
         print("browser-check: " + p, file=sys.stderr)
-    print("browser-check: %s images, %d numbers matched summary.xml, %d failed points"
-          % (images, checked, not_run))
+    print("browser-check: %s images, %d numbers matched summary.xml, %d failed points, "
+          "%d table sorted by click, %d operating points with units"
+          % (images, checked, not_run, sorted_tables, points))
     return 1 if problems else 0
 
 
 if __name__ == "__main__":
-    sys.exit(main(sys.argv[1], sys.argv[2]))
+    sys.exit(main(*sys.argv[1:4]))
