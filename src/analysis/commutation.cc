@@ -271,7 +271,7 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
     if (!(s <= dvdt)) dvdt = s;
   }
 
-  // Energy view of ZVS (equal linear switches; docs/references.md sec. 2 and 3).
+  // Energy view of ZVS (equal linear switches; netlists/references.md sec. 2 and 3).
   double e_cap = kNaN, e_avail = kNaN, e_need = kNaN, margin = kNaN;
   if (std::isfinite(params.coss_f)) e_cap = params.coss_f * std::pow(std::max(v_on, 0.0), 2);
   double i_help = up ? -current : current;

@@ -83,14 +83,14 @@ EdgeParams EdgeParamsFor(const CellSpec& cell, const Variables& resolved);
 //                        from the start of its command edge (falling through
 //                        0.95) until t_on. i_channel = i(v.<switch>.vch),
 //                        drain -> source: the capacitor's charge is not counted
-//                        (docs/references.md sec. 3)
+//                        (netlists/references.md sec. 3)
 //   e_cap_est_j          capacitive turn-on loss estimate for equal linear
 //                        switches, coss * v_turn_on_v^2 (= V*Qoss(V) hard,
-//                        Coss*Vr^2 partial; docs/references.md sec. 3); needs `coss`
+//                        Coss*Vr^2 partial; netlists/references.md sec. 3); needs `coss`
 //   e_available_j        1/2 * L * I * |I|, I = the commutated current in the
 //                        direction that drives the node toward the incoming
 //                        rail (-i_commutated_a for high_on); needs `inductance`
-//   e_needed_j           charge-based need (docs/references.md sec. 2, Costinett et
+//   e_needed_j           charge-based need (netlists/references.md sec. 2, Costinett et
 //                        al. 2015): Qoss(V) * (V - 2*Vo) for high_on,
 //                        Qoss(V) * (2*Vo - V) for low_on; V = rail,
 //                        Vo = average of node - rail_low over the data,

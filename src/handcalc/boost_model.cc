@@ -14,12 +14,12 @@ constexpr double kPi = 3.14159265358979323846;
 std::string N(double v) { return std::isnan(v) ? "n/a" : FormatEngineering(v, 4); }
 
 constexpr const char* kSrcBoost =
-    "Erickson & Maksimovic 2001, ch. 2 (volt-second and charge balance); docs/references.md sec. 1";
-constexpr const char* kSrcTcm = "docs/references.md sec. 5 [derived]";
+    "Erickson & Maksimovic 2001, ch. 2 (volt-second and charge balance); netlists/references.md sec. 1";
+constexpr const char* kSrcTcm = "netlists/references.md sec. 5 [derived]";
 constexpr const char* kSrcZvs =
-    "docs/references.md sec. 5 [derived]; mirror image of sec. 2 (Vorperian, IEEE TPEL 3(2), 1988)";
+    "netlists/references.md sec. 5 [derived]; mirror image of sec. 2 (Vorperian, IEEE TPEL 3(2), 1988)";
 constexpr const char* kSrcLinear =
-    "Mohan, Undeland & Robbins 2003, soft-switching chapter; docs/references.md sec. 2";
+    "Mohan, Undeland & Robbins 2003, soft-switching chapter; netlists/references.md sec. 2";
 
 class Boost : public TopologyModel {
  public:

@@ -1,4 +1,4 @@
-// The synchronous boost's hand calculation (docs/references.md sections 2 and 5).
+// The synchronous boost's hand calculation (netlists/references.md sections 2 and 5).
 #pragma once
 
 #include "handcalc/topology_model.h"

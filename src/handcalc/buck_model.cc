@@ -15,19 +15,19 @@ constexpr double kPi = 3.14159265358979323846;
 
 std::string N(double v) { return std::isnan(v) ? "n/a" : FormatEngineering(v, 4); }
 
-// The sources, as docs/references.md tags them.
+// The sources, as netlists/references.md tags them.
 constexpr const char* kSrcBuck =
     "Erickson & Maksimovic 2001, ch. 2; Mohan, Undeland & Robbins 2003, ch. 7; "
-    "docs/references.md sec. 1";
+    "netlists/references.md sec. 1";
 constexpr const char* kSrcLinear =
-    "Mohan, Undeland & Robbins 2003, soft-switching chapter; docs/references.md sec. 2";
+    "Mohan, Undeland & Robbins 2003, soft-switching chapter; netlists/references.md sec. 2";
 constexpr const char* kSrcResonant =
-    "docs/references.md sec. 2 [derived]; same analysis as Vorperian, IEEE TPEL 3(2), 1988";
+    "netlists/references.md sec. 2 [derived]; same analysis as Vorperian, IEEE TPEL 3(2), 1988";
 constexpr const char* kSrcCharge =
-    "docs/references.md sec. 2 [derived]; Costinett, Maksimovic & Zane, IEEE TPEL 30(2), 2015";
-constexpr const char* kSrcWindow = "docs/references.md sec. 2 [derived]";
-constexpr const char* kSrcLoss = "docs/references.md sec. 3 [derived]; Costinett et al. 2015";
-constexpr const char* kSrcDiode = "docs/references.md sec. 3 [common practice]";
+    "netlists/references.md sec. 2 [derived]; Costinett, Maksimovic & Zane, IEEE TPEL 30(2), 2015";
+constexpr const char* kSrcWindow = "netlists/references.md sec. 2 [derived]";
+constexpr const char* kSrcLoss = "netlists/references.md sec. 3 [derived]; Costinett et al. 2015";
+constexpr const char* kSrcDiode = "netlists/references.md sec. 3 [common practice]";
 
 // Collects predictions of one cell.
 class Sheet {
@@ -47,7 +47,7 @@ class Sheet {
 // switch of the leg sits at vin - vr and is charged to vin through the
 // channel: E = Eoss(vr) + vin*(Q(vin) - Q(vin - vr)) - (E(vin) - E(vin - vr)).
 // Equal devices, hard turn-on (vr = vin): vin*Q(vin); linear Coss: Coss*vr^2.
-// docs/references.md sec. 3 [derived]; Costinett et al. 2015.
+// netlists/references.md sec. 3 [derived]; Costinett et al. 2015.
 double TurnOnCapacitiveLoss(const OutputCapacitance& c, double vin, double vr) {
   vr = std::clamp(vr, 0.0, vin);
   double other = vin - vr;
@@ -143,8 +143,8 @@ bool Buck::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
   // linear-resonant analysis, the energy-equivalent one is shown beside it.
   const double q = cap->Charge(vin), e = cap->Energy(vin);
   s.Add("q_oss_c", q, "Qoss(Vin) = integral_0^Vin C dv (" + cap->Describe() + ")",
-        "docs/references.md sec. 6", {"Qoss(" + N(vin) + " V) = " + N(q) + " C"});
-  s.Add("e_oss_j", e, "Eoss(Vin) = integral_0^Vin v*C dv", "docs/references.md sec. 6",
+        "netlists/references.md sec. 6", {"Qoss(" + N(vin) + " V) = " + N(q) + " C"});
+  s.Add("e_oss_j", e, "Eoss(Vin) = integral_0^Vin v*C dv", "netlists/references.md sec. 6",
         {"Eoss(" + N(vin) + " V) = " + N(e) + " J"});
   const double q_node = 2 * q + cext * vin;
   const double q_node_energy = 2 * (2 * e / vin) + cext * vin;
@@ -168,7 +168,7 @@ bool Buck::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
     pc.metric = "i_commutated_a";
     pc.tolerance = {0.05, 0.1};
     // Threshold: 1/2*L*I0^2 >= (Qoss(Vin) + Cext*Vin/2)*(Vin - 2*Vo), i.e.
-    // I0 >= sqrt(Ceq*Vin*(Vin - 2*Vo)/L) for linear Ceq (docs/references.md sec. 2).
+    // I0 >= sqrt(Ceq*Vin*(Vin - 2*Vo)/L) for linear Ceq (netlists/references.md sec. 2).
     const double swing = std::max(0.0, vin - 2 * vo);
     const double th_q = std::sqrt(q_node * swing / l), th_e = std::sqrt(q_node_energy * swing / l);
     s.Add("high_on_i_zvs_charge_a", th_q, "I0 >= sqrt((2*Qoss(Vin) + Cext*Vin)*(Vin - 2*Vo)/L)",
@@ -184,7 +184,7 @@ bool Buck::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
            ") = " + N(th_e) + " A"},
           E);
     // ZVS verdicts (1/0) beside the simulated class: the charge-based one is
-    // the condition (docs/references.md sec. 2), the energy-based one shows how
+    // the condition (netlists/references.md sec. 2), the energy-based one shows how
     // far an Eoss-sized design would be off.
     Prediction& vq = s.Add("high_on_zvs_charge", i0 >= th_q ? 1 : 0, "ZVS iff I0 >= I_zvs",
                            kSrcCharge, {"I0 = " + N(i0) + " A vs " + N(th_q) + " A"}, E);
@@ -199,7 +199,7 @@ bool Buck::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
     s.Add("high_on_t_linear_s", t_lin, "t = (2*Qoss(Vin) + Cext*Vin)/|I| (= 2*C*Vin/|I|)",
           kSrcLinear, {"t = " + N(q_node) + " / " + N(i0) + " = " + N(t_lin) + " s"}, E);
     // v(t) = Vo*(1 - cos wt) + I0*Z*sin wt = Vo + R*sin(wt - phi),
-    // i(t) = I0*cos wt + (Vo/Z)*sin wt (docs/references.md sec. 2).
+    // i(t) = I0*cos wt + (Vo/Z)*sin wt (netlists/references.md sec. 2).
     const double r = std::hypot(vo, i0 * z), phi = std::atan2(vo, i0 * z);
     auto v_at = [&](double t) { return vo * (1 - std::cos(w * t)) + i0 * z * std::sin(w * t); };
     auto t_for = [&](double v) {  // first time the rising node reaches v
@@ -234,7 +234,7 @@ bool Buck::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
     pt.metric = "t_transition_s";
     pt.tolerance = {0.05, 0.5e-9};
     // Dead-time window: min = t_ZVS; max = t_ZVS + L*i_end/(Vin - Vo), when the
-    // current reverses and the node rings back (docs/references.md sec. 2).
+    // current reverses and the node rings back (netlists/references.md sec. 2).
     const double t_max = zvs ? t_zvs + l * i_end / (vin - vo) : NAN;
     s.Add("high_on_t_dead_min_s", t_zvs, "td_min = t_ZVS", kSrcWindow,
           {"td_min = " + N(t_zvs) + " s"}, E);
@@ -341,7 +341,7 @@ bool Buck::Predict(const ModelContext& ctx, std::vector<Prediction>* out,
               kSrcResonant, {note, "t_transition = " + N(t90 - t10) + " s"}, E);
     pt.metric = "t_transition_s";
     pt.tolerance = {0.05, 0.5e-9};
-    // A long low-side dead time only costs diode conduction (docs/references.md sec. 2).
+    // A long low-side dead time only costs diode conduction (netlists/references.md sec. 2).
     s.Add("low_on_t_dead_min_s", t_zvs, "td_min = t_ZVS (no ring-back limit)", kSrcWindow,
           {"td_min = " + N(t_zvs) + " s"}, E);
     double v_on = NAN;

@@ -1,4 +1,4 @@
-// The synchronous buck's hand calculation (docs/references.md sections 1-3).
+// The synchronous buck's hand calculation (netlists/references.md sections 1-3).
 #pragma once
 
 #include "handcalc/topology_model.h"

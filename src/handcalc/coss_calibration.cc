@@ -117,7 +117,7 @@ bool FitPowerLaw(const CossDatasheet& data, PowerLawFit* fit, std::string* error
     return false;
   }
   fit->ratio = r;
-  fit->g = (2 * r - 2) / (2 * r - 1);  // docs/references.md section 6
+  fit->g = (2 * r - 2) / (2 * r - 1);  // netlists/references.md section 6
   fit->k = data.co_tr_f * (1 - fit->g) * std::pow(data.v_rated_v, fit->g);
   fit->reproduced.clear();
   auto c = MakePowerLawCapacitance(fit->k, fit->g);

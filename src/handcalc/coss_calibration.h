@@ -25,7 +25,7 @@ struct CossDatasheet {
   double c_at_v_f = 0;   ///< small-signal C at c_v_v (0: not given)
   double c_v_v = 0;
 
-  /// Co(tr) = Qoss/V, Co(er) = 2 Eoss/V^2 (docs/references.md section 6 conventions).
+  /// Co(tr) = Qoss/V, Co(er) = 2 Eoss/V^2 (netlists/references.md section 6 conventions).
   static CossDatasheet FromCharges(double v_v, double qoss_c, double eoss_j);
 };
 
@@ -39,7 +39,7 @@ struct Reproduction {
 };
 
 /// Power law calibrated from r = Co(tr)/Co(er): g = (2r - 2)/(2r - 1),
-/// k = Co(tr) (1 - g) V^g (docs/references.md section 6). Both numbers are met
+/// k = Co(tr) (1 - g) V^g (netlists/references.md section 6). Both numbers are met
 /// exactly; the small-signal C, when given, is only reported.
 struct PowerLawFit {
   double k = 0;  ///< F * V^g

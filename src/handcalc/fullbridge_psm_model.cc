@@ -14,9 +14,9 @@ constexpr double kPi = 3.14159265358979323846;
 std::string N(double v) { return std::isnan(v) ? "n/a" : FormatEngineering(v, 4); }
 
 constexpr const char* kSrcSabate =
-    "Sabate, Vlatkovic, Ridley, Lee & Cho, APEC 1990; docs/references.md sec. 4";
-constexpr const char* kSrcLagCharge = "docs/references.md sec. 4 [derived] (charge-based)";
-constexpr const char* kSrcDerived = "docs/references.md sec. 4 [derived]";
+    "Sabate, Vlatkovic, Ridley, Lee & Cho, APEC 1990; netlists/references.md sec. 4";
+constexpr const char* kSrcLagCharge = "netlists/references.md sec. 4 [derived] (charge-based)";
+constexpr const char* kSrcDerived = "netlists/references.md sec. 4 [derived]";
 
 class FullBridgePsm : public TopologyModel {
  public:
@@ -132,7 +132,7 @@ bool FullBridgePsm::Predict(const ModelContext& ctx, std::vector<Prediction>* ou
   }
 
   // ---- Lagging leg: the rectifier shorts the winding; Lr alone swings the
-  // node through the resonance with Ceq (docs/references.md sec. 4).
+  // node through the resonance with Ceq (netlists/references.md sec. 4).
   const double ip = std::max(0.0, (io - ripple / 2) / n + im);
   AddPrediction(out, "i_primary_a", ip, "Ip = (Io - dILo/2)/n + Im", kSrcDerived,
       {"Ip = (" + N(io) + " - " + N(ripple) + "/2)/" + N(n) + " + " + N(im) + " = " + N(ip) +

@@ -1,4 +1,4 @@
-// The phase-shift-modulated full bridge's hand calculation (docs/references.md
+// The phase-shift-modulated full bridge's hand calculation (netlists/references.md
 // section 4).
 #pragma once
 

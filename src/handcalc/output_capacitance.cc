@@ -20,7 +20,7 @@ class LinearCapacitance : public OutputCapacitance {
   double c_;
 };
 
-// Closed forms with x = V/Vj (docs/references.md section 6, derived):
+// Closed forms with x = V/Vj (netlists/references.md section 6, derived):
 //   Q(V) = C0 Vj/(1 - m) [(1 + x)^(1 - m) - 1]
 //   E(V) = C0 Vj^2 [((1 + x)^(2 - m) - 1)/(2 - m) - ((1 + x)^(1 - m) - 1)/(1 - m)]
 class JunctionCapacitance : public OutputCapacitance {

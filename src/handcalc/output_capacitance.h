@@ -28,7 +28,7 @@ class OutputCapacitance {
 /// C(V) = c_f: Q = c V, E = c V^2 / 2.
 std::unique_ptr<OutputCapacitance> MakeLinearCapacitance(double c_f);
 
-/// C(V) = c0_f / (1 + V/vj_v)^m, 0 < m < 1 (docs/references.md section 6 closed forms).
+/// C(V) = c0_f / (1 + V/vj_v)^m, 0 < m < 1 (netlists/references.md section 6 closed forms).
 std::unique_ptr<OutputCapacitance> MakeJunctionCapacitance(double c0_f, double vj_v, double m);
 
 }  // namespace zvsmap

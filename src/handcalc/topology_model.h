@@ -34,7 +34,7 @@ struct Prediction {
   std::string metric;              ///< the simulated metric column it pairs with, or ""
   Tolerance tolerance;             ///< for the pairing
   std::string formula;             ///< the formula in symbols, e.g. "dI = (Vin - Vo)*D/(L*fs)"
-  std::string source;              ///< where the formula comes from (docs/references.md tag)
+  std::string source;              ///< where the formula comes from (netlists/references.md tag)
   std::vector<std::string> steps;  ///< the formula with numbers, intermediate values
   bool user = false;               ///< from the sweep file's <predict>, not the built-in model
   /// The pairing's column tag for a built-in prediction ("" = "pred"); two

@@ -13,7 +13,7 @@ namespace zvsmap {
 
 namespace {
 
-// Okabe & Ito (2008) colours, one per series (docs/references.md sec. 13).
+// Okabe & Ito (2008) colours, one per series (netlists/references.md sec. 13).
 const char* const kSeries[] = {"#0072B2", "#D55E00", "#009E73", "#CC79A7",
                                "#E69F00", "#56B4E9", "#F0E442", "#000000"};
 constexpr const char* kRecommendedColumn = "t_dead_recommended_s";

@@ -209,7 +209,7 @@ std::string WindowTable(const ReportBasis& input, const EdgeKey& key) {
          std::string(fits ? "between " + FormatQuantity(start.hi, "s") + " and " +
                                 FormatQuantity(end.lo, "s")
                           : "nowhere: the longest start exceeds the shortest end") +
-         " (docs/references.md sec. 10).</p>\n";
+         " (netlists/references.md sec. 10).</p>\n";
   } else if (start.n > 0) {
     h += "<p>The window's end was not reached within the dead time at any point: a dead time of at "
          "least " +

@@ -63,7 +63,7 @@ TEST_F(ExpressionTest, NormalizeKeepsIdentifiersWithDigits) {
 TEST_F(ExpressionTest, Variables) {
   // Buck duty cycle D = Vo/Vin: Erickson & Maksimovic 2001, ch. 2.
   EXPECT_DOUBLE_EQ(Eval("Vout/Vin", {{"Vout", 12}, {"Vin", 48}}), 0.25);
-  // Buck ripple dI = (Vin - Vo)*D/(L*fs); check case of docs/references.md section 8:
+  // Buck ripple dI = (Vin - Vo)*D/(L*fs); check case of netlists/references.md section 8:
   // 48 V -> 12 V, 500 kHz, 1 uH gives 18 A (Erickson & Maksimovic 2001, ch. 2).
   EXPECT_NEAR(Eval("(Vin - Vout)*(Vout/Vin)/(L*fsw)",
                    {{"Vin", 48}, {"Vout", 12}, {"L", 1e-6}, {"fsw", 500e3}}),

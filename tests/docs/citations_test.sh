@@ -24,7 +24,7 @@ done
 for f in $files; do
   dir=$(dirname "$f")
   for cited in $(grep -oE '[A-Za-z0-9_./-]*[A-Za-z0-9_]\.md\b' "$f" 2>/dev/null | sort -u); do
-    [ -e "$cited" ] || [ -e "$dir/$cited" ] || [ -e "docs/$cited" ] || {
+    [ -e "$cited" ] || [ -e "$dir/$cited" ] || [ -e "netlists/$cited" ] || {
       echo "citations: $f cites $cited, which is not in the repository" >&2
       status=1
     }

@@ -51,7 +51,7 @@ class SwitchCommandsE2eTest : public ::testing::Test {
 TEST_F(SwitchCommandsE2eTest, CalibratePrintsTheExponentOfTheRatioAndPasteableParameters) {
   std::string out, err;
   ASSERT_EQ(Zvsmap("calibrate -V 48 --co-tr 452p --co-er 298p --m 0.6", &out, &err), 0) << err;
-  double r = 452.0 / 298.0, g = (2 * r - 2) / (2 * r - 1);  // docs/references.md sec. 6
+  double r = 452.0 / 298.0, g = (2 * r - 2) / (2 * r - 1);  // netlists/references.md sec. 6
   char expected[64];
   std::snprintf(expected, sizeof expected, "g = %.6g", g);
   EXPECT_NE(out.find(expected), std::string::npos) << out;
@@ -77,7 +77,7 @@ TEST_F(SwitchCommandsE2eTest, CharacterizeWritesTheJunctionTable) {
   ASSERT_EQ(std::sscanf(row2.c_str(), "%lf,%lf,%lf", &v, &c, &q), 3) << row2;
   EXPECT_DOUBLE_EQ(v, 48);
   // Junction Q(V) = C0 Vj/(1-m) [(1 + V/Vj)^(1-m) - 1] with the library defaults
-  // C0 = 4 nF, Vj = 0.7 V, m = 0.5 (docs/references.md sec. 6).
+  // C0 = 4 nF, Vj = 0.7 V, m = 0.5 (netlists/references.md sec. 6).
   double expected = 4e-9 * 0.7 / 0.5 * (std::sqrt(1 + 48 / 0.7) - 1);
   EXPECT_NEAR(q, expected, 0.01 * expected);
   EXPECT_EQ(ReadText((dir_ / "reverse.csv").string()).substr(0, 17), "i_rev_a,v_rev_v\r\n");

@@ -3,7 +3,7 @@
 # the binary; every cell and edge is measured; the full bridge's lagging leg
 # loses ZVS at light load and small series inductance while the leading leg
 # keeps it (Sabate et al., APEC 1990: only Lr drives the lagging transition);
-# the boost's low-side turn-on is ZVS for free at Vin <= Vout/2 (docs/references.md
+# the boost's low-side turn-on is ZVS for free at Vin <= Vout/2 (netlists/references.md
 # sec. 5, derived); both summaries validate against the XSD with xmllint.
 #   topology_demos_test.sh ZVSMAP_BINARY SOURCE_DIR
 set -euo pipefail

@@ -1,5 +1,5 @@
 // Calibration of the generic output-capacitance forms from datasheet-style
-// numbers (docs/references.md section 6). The reference values are computed here by
+// numbers (netlists/references.md section 6). The reference values are computed here by
 // numerical integration of C(V), independently of the closed forms.
 #include "handcalc/coss_calibration.h"
 
@@ -43,13 +43,13 @@ TEST_F(CossCalibrationTest, PowerLawReproducesBothNumbersAndTheExponentFollowsTh
   std::string error;
   ASSERT_TRUE(FitPowerLaw(data, &fit, &error)) << error;
   double r = 452.0 / 298.0;
-  // docs/references.md sec. 6, g = (2r-2)/(2r-1)
+  // netlists/references.md sec. 6, g = (2r-2)/(2r-1)
   EXPECT_NEAR(fit.g, (2 * r - 2) / (2 * r - 1), 1e-12);
   // Both numbers from the fitted C = K V^-g, integrated numerically: within 1 %.
   double co_tr = 0, co_er = 0;
   Equivalents([&](double u) { return fit.k * std::pow(u, -fit.g); }, 48, &co_tr, &co_er);
-  EXPECT_NEAR(co_tr, data.co_tr_f, 0.01 * data.co_tr_f);  // docs/references.md sec. 6, Co(tr) = Q/V
-  // docs/references.md sec. 6, Co(er) = 2E/V^2
+  EXPECT_NEAR(co_tr, data.co_tr_f, 0.01 * data.co_tr_f);  // netlists/references.md sec. 6, Co(tr) = Q/V
+  // netlists/references.md sec. 6, Co(er) = 2E/V^2
   EXPECT_NEAR(co_er, data.co_er_f, 0.01 * data.co_er_f);
   ASSERT_EQ(fit.reproduced.size(), 2u);
   for (const auto& row : fit.reproduced)

@@ -17,7 +17,7 @@
 namespace zvsmap {
 namespace {
 
-// The check case of docs/references.md section 8.
+// The check case of netlists/references.md section 8.
 constexpr const char* kTemplate =
     "buck for tests\n"
     ".param Vin=48 Vout=12 fsw=500k L=1u Iout=5 Coss=1n Vf=0.7\n"
@@ -58,7 +58,7 @@ TEST_F(HandCalculationTest, TemplateChoosesTheModel) {
 }
 
 // 2*C*Vin/|Iv| = 2 * 1n * 48 / 4 = 24 ns: the linear transition of
-// docs/references.md sec. 2 (Mohan et al. 2003), arithmetic by hand. Names match
+// netlists/references.md sec. 2 (Mohan et al. 2003), arithmetic by hand. Names match
 // case-insensitively, as SPICE parameter names do.
 TEST_F(HandCalculationTest, UserFormulaOverParametersAndModelValues) {
   ASSERT_TRUE(
@@ -168,7 +168,7 @@ TEST_F(HandCalculationTest, PairedColumnsOnTheEdge) {
   EXPECT_EQ(e.Get("i_commutated_a__iv__beyond_tol"), 0.0);    // 0.2 <= 0.3 absolute
   EXPECT_EQ(edges[1].Get("i_commutated_a__pred__beyond_tol"), 0.0);
   EXPECT_TRUE(std::isnan(edges[1].Get("i_commutated_a__iv")));  // paired with high_on only
-  EXPECT_EQ(e.Get("zvs_full__pred"), 1.0);  // I0 = 4 A >= 1.518 A (docs/references.md sec. 8)
+  EXPECT_EQ(e.Get("zvs_full__pred"), 1.0);  // I0 = 4 A >= 1.518 A (netlists/references.md sec. 8)
   EXPECT_EQ(e.Get("zvs_full__pred__beyond_tol"), 0.0);
   EXPECT_EQ(e.Get("zvs_full__pred_energy__beyond_tol"), 0.0);
 

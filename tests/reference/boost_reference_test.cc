@@ -1,5 +1,5 @@
 // The synchronous boost template in real ngspice, checked against the derived
-// ZVS condition of docs/references.md section 5 (and section 2, of which
+// ZVS condition of netlists/references.md section 5 (and section 2, of which
 // it is the mirror image).
 #include <gtest/gtest.h>
 
@@ -49,7 +49,7 @@ class BoostReferenceTest : public ::testing::Test {
 // Low-side turn-on of a synchronous boost (node falls from Vout, the inductor
 // returns to Vin): ZVS needs a reverse current I at the high switch's
 // turn-off with 1/2*L*I^2 >= Qoss(Vout)*(2*Vin - Vout); with linear Coss,
-// Qoss(Vout) = Coss*Vout. docs/references.md section 5 [derived] (the mirror image
+// Qoss(Vout) = Coss*Vout. netlists/references.md section 5 [derived] (the mirror image
 // of section 2's high-side condition; same analysis as Vorperian, IEEE Trans.
 // Power Electron. 3(2), 1988). Sweeping the chosen reverse current IR at
 // Vin = 300 V moves the measured current through the threshold; the class must
@@ -82,7 +82,7 @@ TEST_F(BoostReferenceTest, LowSideZvsBoundaryFollowsTheChargeCondition) {
 // With Vin <= Vout/2 the right-hand side of the condition is <= 0: the
 // L-Coss resonance alone takes the node to zero, so the low-side turn-on is
 // zero-voltage switched even without reverse current (IR = 0).
-// docs/references.md section 5 [derived]. The high-side turn-on (node charged by
+// netlists/references.md section 5 [derived]. The high-side turn-on (node charged by
 // the peak current) is zero-voltage switched as well.
 TEST_F(BoostReferenceTest, LowSideZvsIsFreeBelowHalfTheOutputVoltage) {
   for (double vin : {150.0, 180.0}) {

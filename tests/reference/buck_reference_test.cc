@@ -1,5 +1,5 @@
 // The synchronous buck template in real ngspice, checked against published
-// and derived hand formulas (docs/references.md sections 1, 2 and 8).
+// and derived hand formulas (netlists/references.md sections 1, 2 and 8).
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -36,7 +36,7 @@ class BuckReferenceTest : public ::testing::Test {
 // Inductor ripple of a buck in continuous conduction:
 // dI = (Vin - Vo) * D / (L * fs), D = Vo / Vin.
 // Erickson & Maksimovic, Fundamentals of Power Electronics, 2nd ed. (2001), ch. 2;
-// docs/references.md section 8 gives dI = 18 A for 48 V -> 12 V, 500 kHz, 1 uH.
+// netlists/references.md section 8 gives dI = 18 A for 48 V -> 12 V, 500 kHz, 1 uH.
 TEST_F(BuckReferenceTest, RippleMatchesTheVoltSecondBalanceFormula) {
   const double vin = 48, vo = 12, fs = 500e3, l = 1e-6;
   Waveforms waves;
@@ -59,14 +59,14 @@ TEST_F(BuckReferenceTest, RippleMatchesTheVoltSecondBalanceFormula) {
 // Large commutated current, linear switch capacitance C: the node slews at
 // I / (2 C), so the full swing takes 2 * C * Vin / |I| and its 10-90 % part
 // 0.8 of that. Mohan, Undeland & Robbins, Power Electronics, 3rd ed. (2003),
-// soft-switching chapter; docs/references.md section 2.
+// soft-switching chapter; netlists/references.md section 2.
 TEST_F(BuckReferenceTest, LowSideTransitionMatchesConstantCurrentSlew) {
   const double c = 1e-9, vin = 48;
   PointResult r = Run({{"Vin", vin}, {"Vout", 12}, {"L", 1e-6}, {"Iout", 5}, {"Coss", c}});
   ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
   const EdgeMeasurement& e = EdgeOf(r, "low_on");
   double current = e.Get("i_commutated_a");
-  ASSERT_GT(current, 10.0);  // a large current: peak ~ 14 A (docs/references.md sec. 8)
+  ASSERT_GT(current, 10.0);  // a large current: peak ~ 14 A (netlists/references.md sec. 8)
   double expected = 0.8 * 2 * c * vin / std::fabs(current);
   EXPECT_NEAR(e.Get("t_transition_s"), expected, 0.05 * expected);
   EXPECT_EQ(e.zvs, ZvsClass::kFull);
@@ -74,7 +74,7 @@ TEST_F(BuckReferenceTest, LowSideTransitionMatchesConstantCurrentSlew) {
 
 // The high-side turn-on is zero-voltage switched while the valley current
 // I0 = -Iv satisfies I0 >= sqrt(Ceq * Vin * (Vin - 2 Vo) / L), Ceq = 2 Coss
-// (resonant transition, docs/references.md section 2, derived; same analysis as
+// (resonant transition, netlists/references.md section 2, derived; same analysis as
 // Vorperian, IEEE Trans. Power Electron. 3(2), 1988). Sweeping the load moves
 // the valley current through the threshold; the class must flip there (10 %).
 // Vo in the formula is the simulated average output voltage (open loop, the

@@ -1,5 +1,5 @@
 // The phase-shift-modulated full-bridge template in real ngspice, checked
-// against the published and derived hand formulas of docs/references.md
+// against the published and derived hand formulas of netlists/references.md
 // section 4: Sabate, Vlatkovic, Ridley, Lee & Cho, "Design considerations for
 // high-voltage high-power full-bridge zero-voltage-switched PWM converter",
 // APEC 1990, and the charge-based lagging-leg condition [derived].
@@ -67,7 +67,7 @@ TEST_F(FullBridgeReferenceTest, BothLegsHaveBothEdgesMeasured) {
 // drives the node through the resonance with Ceq = 2*Coss + C_TR:
 // v(t) = Ip*Zr*sin(w_r*t), so the node reaches the rail at
 // w_r*t = asin(Vin/(Ip*Zr)), Zr = sqrt(Lr/Ceq), w_r = 1/sqrt(Lr*Ceq).
-// docs/references.md section 4 [derived]; Sabate et al., APEC 1990. Within 3 %.
+// netlists/references.md section 4 [derived]; Sabate et al., APEC 1990. Within 3 %.
 TEST_F(FullBridgeReferenceTest, LaggingLegTransitionFollowsTheResonantArcsine) {
   const double lr = 10e-6, ctr = 1e-12;  // Ctr = 0 in the template means 1 pF
   PointResult r = Run({{"Lr", lr}, {"Iout", 20}, {"Ctr", 0}});
@@ -88,7 +88,7 @@ TEST_F(FullBridgeReferenceTest, LaggingLegTransitionFollowsTheResonantArcsine) {
 
 // Leading leg: the reflected output-inductor current keeps the primary current
 // nearly constant, so the node swings in t = (2*Qoss(Vin) + C_TR*Vin)/Ip, and
-// 10 % -> 90 % takes 0.8 of that. Sabate et al., APEC 1990; docs/references.md
+// 10 % -> 90 % takes 0.8 of that. Sabate et al., APEC 1990; netlists/references.md
 // section 4. Within 5 %, with and without a transformer capacitance.
 // Ip is the primary current read 2 ns before the turn-off command: at the
 // command instant the outgoing channel is already off and C_TR (across the
@@ -114,7 +114,7 @@ TEST_F(FullBridgeReferenceTest, LeadingLegTransitionIsTheChargeOverTheReflectedC
 // Duty-cycle loss: after each lagging-leg transition the primary current
 // reverses through Lr (slope Vin/Lr) from +Io/n to -Io/n while the rectifier
 // shorts the winding: dD = 4*Lr*fs*Io/(n*Vin) of the half period.
-// Sabate et al., APEC 1990; docs/references.md section 4. Within 10 %.
+// Sabate et al., APEC 1990; netlists/references.md section 4. Within 10 %.
 // Measured from the waveforms: from the lag node's 50 % crossing to the
 // instant the secondary carries the whole output-inductor current again,
 // n*|i_p - i_m| >= 0.99*i_Lo.
@@ -152,7 +152,7 @@ TEST_F(FullBridgeReferenceTest, DutyCycleLossMatchesSabate) {
 }
 
 // Minimum load for lagging-leg ZVS: with Ip the lag leg's commutated current,
-// ZVS needs 1/2*Lr*Ip^2 >= Vin*Qoss(Vin) + 1/2*C_TR*Vin^2 (docs/references.md
+// ZVS needs 1/2*Lr*Ip^2 >= Vin*Qoss(Vin) + 1/2*C_TR*Vin^2 (netlists/references.md
 // section 4 [derived], the charge-based form). Sweeping the load across the
 // boundary, the simulated class must flip where the measured current crosses
 // the predicted threshold, within 5 %. A tight residual (2 V) so that "full"

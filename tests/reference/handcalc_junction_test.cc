@@ -1,6 +1,6 @@
 // Junction-type (nonlinear) output capacitance in real ngspice: the high-side
 // ZVS boundary follows the charge-based threshold, not the energy-based one
-// (docs/references.md section 2, derived; agrees with Costinett,
+// (netlists/references.md section 2, derived; agrees with Costinett,
 // Maksimovic & Zane, IEEE Trans. Power Electron. 30(2), 2015), and the
 // prediction columns flag the energy-based verdict where the two differ.
 #include <gtest/gtest.h>
@@ -143,7 +143,7 @@ TEST_F(HandcalcJunctionTest, ChargeBasedThresholdPredictsTheBoundary) {
   }
   double boundary_charge = 0.5 * (reach.i0 / reach.charge + shorts.i0 / shorts.charge);
   double boundary_energy = 0.5 * (reach.i0 / reach.energy + shorts.i0 / shorts.energy);
-  // docs/references.md sec. 2: the charge Qoss sets the condition (within 5 %) ...
+  // netlists/references.md sec. 2: the charge Qoss sets the condition (within 5 %) ...
   EXPECT_NEAR(boundary_charge, 1.0, 0.05) << log;
   // ... and 2*Eoss does not: the simulated boundary lies measurably above it.
   EXPECT_GT(boundary_energy, 1.10) << log;
@@ -151,7 +151,7 @@ TEST_F(HandcalcJunctionTest, ChargeBasedThresholdPredictsTheBoundary) {
 
 // Between the two thresholds the charge-based verdict (no ZVS) agrees with
 // the simulated class and the energy-based one (ZVS) is flagged. The model's
-// own valley current Io - dI/2 = 7.7 - 9 = -1.3 A (docs/references.md sec. 1)
+// own valley current Io - dI/2 = 7.7 - 9 = -1.3 A (netlists/references.md sec. 1)
 // lies between the energy-based (~1.21 A) and charge-based (~1.40 A)
 // thresholds; the simulated one is smaller still (open-loop droop).
 TEST_F(HandcalcJunctionTest, EnergyBasedVerdictIsFlaggedBetweenTheThresholds) {

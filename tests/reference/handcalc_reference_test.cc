@@ -1,7 +1,7 @@
 // The built-in buck model beside real ngspice on points where its assumptions
 // hold (linear Coss, large output capacitor, continuous conduction, ZVS on
 // both edges): ripple, valley current and transition time within 3 %.
-// Formulas: docs/references.md sections 1 and 2.
+// Formulas: netlists/references.md sections 1 and 2.
 #include <gtest/gtest.h>
 
 #include <algorithm>
@@ -80,7 +80,7 @@ TEST_P(HandcalcReferenceTest, RippleValleyAndTransitionWithinThreePercent) {
   // Ipk = Io + dI/2 (same source), the current at the high-side turn-off.
   double peak = cell.Find("i_peak_a")->value;
   EXPECT_NEAR(edge("low_on").Get("i_commutated_a"), peak, 0.03 * peak);
-  // 10-90 % of the resonant swing: docs/references.md sec. 2 (derived; Vorperian 1988).
+  // 10-90 % of the resonant swing: netlists/references.md sec. 2 (derived; Vorperian 1988).
   for (const char* name : {"high_on", "low_on"}) {
     double predicted = cell.Find(std::string(name) + "_t_transition_s")->value;
     ASSERT_FALSE(std::isnan(predicted)) << name;
@@ -92,7 +92,7 @@ TEST_P(HandcalcReferenceTest, RippleValleyAndTransitionWithinThreePercent) {
 }
 
 // Points whose dead-time transitions take under ~1.5 % of the period (the
-// ideal-switch volt-second balance ignores them): the docs/references.md sec. 8
+// ideal-switch volt-second balance ignores them): the netlists/references.md sec. 8
 // check case (1 uH, 5 A), a lighter load, and a smaller inductor. At 2.2 uH and
 // 2 A the high-side swing takes ~44 ns (2.2 % of the period) and the
 // simulated valley current came out 6 % smaller than predicted (measured while

@@ -7,7 +7,7 @@
 // - the simulated ZVS boundary against the charge-based condition
 //   1/2 L I0^2 >= Qoss(Vin) (Vin - 2 Vo) and the energy-based one (2 Eoss(Vin)/Vin
 //   in place of Qoss(Vin)).
-// docs/references.md sections 2 and 6 [derived]; Costinett, Maksimovic &
+// netlists/references.md sections 2 and 6 [derived]; Costinett, Maksimovic &
 // Zane, IEEE Trans. Power Electron. 30(2), 2015 [pub].
 #include <gtest/gtest.h>
 
@@ -37,7 +37,7 @@ constexpr double kL = 1e-6;
 // C(V) of one switch as the netlist writes it (V clipped at 0).
 double Coss(double v) { return kC0 / std::pow(1 + std::max(v, 0.0) / kVj, kMj); }
 
-// Closed forms of docs/references.md sec. 6 [derived], x = V/Vj.
+// Closed forms of netlists/references.md sec. 6 [derived], x = V/Vj.
 double Qoss(double v) {
   double x = v / kVj;
   return kC0 * kVj / (1 - kMj) * (std::pow(1 + x, 1 - kMj) - 1);
@@ -83,7 +83,7 @@ void Evaluate(double iout, double td_lh, double max_step_s, TransitionRun* run) 
 // The dead-time transition of the high-side turn-on, both channels off,
 // lossless: node voltage v, current i into the node (= -i(l1)),
 //   Cn(v) dv/dt = i,  L di/dt = -(v - Vo),  Cn(v) = C(v) + C(Vin - v)
-// (docs/references.md sec. 2), integrated with Boost.Odeint's Dormand-Prince 5(4)
+// (netlists/references.md sec. 2), integrated with Boost.Odeint's Dormand-Prince 5(4)
 // dense-output stepper from (v0, i0) until v reaches Vin. Returns the time, or
 // NaN when the node turns back first.
 double OdeintTimeToRail(double v0, double i0, double vo) {
@@ -141,7 +141,7 @@ TEST(NonlinearTransitionReferenceTest, TimeToRailMatchesOdeintIntegration) {
 // thresholds at its own output voltage:
 //   charge-based  I_q = sqrt(2 Qoss(Vin) (Vin - 2 Vo) / L)
 //   energy-based  I_e = sqrt(2 (2 Eoss(Vin)/Vin) (Vin - 2 Vo) / L)
-// docs/references.md sec. 2 [derived]; Costinett et al. (2015) [pub]: the charge-based
+// netlists/references.md sec. 2 [derived]; Costinett et al. (2015) [pub]: the charge-based
 // ratio at the boundary is 1 within a few %, the energy-based one is off by
 // sqrt(Co(tr)/Co(er)) = 1.16. (The dead time is long enough that a run with
 // the energy to reach the rail does so before the channel turns on; were it
@@ -170,7 +170,7 @@ TEST(NonlinearTransitionReferenceTest, ZvsBoundaryFollowsTheChargeBasedCondition
     log += line;
     return s;
   };
-  // Valley current ~ Iout - 9 A (docs/references.md sec. 1), so I0 ~ 1.6-2.2 A for
+  // Valley current ~ Iout - 9 A (netlists/references.md sec. 1), so I0 ~ 1.6-2.2 A for
   // Iout 6.8-7.4 A; the long dead time pulls Vo down, so I0 comes out lower.
   double lo = 6.8, hi = 7.4;
   Sample reach = sample(lo), shorts = sample(hi);

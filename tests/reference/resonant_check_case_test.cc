@@ -1,4 +1,4 @@
-// The linear resonant check case of docs/references.md section 8, settled
+// The linear resonant check case of netlists/references.md section 8, settled
 // by zvsmap and measured edge by edge: buck 48 V -> 12 V, 500 kHz, 1 uH,
 // 1 nF per switch, 5 A. Each figure within 2 %.
 #include <gtest/gtest.h>
@@ -68,7 +68,7 @@ TEST(ResonantCheckCaseTest, RippleValleyAndPeakCurrents) {
   PointResult r = RunCase(5, &waves);
   ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
   EXPECT_EQ(r.settle.method, SettleMethod::kShooting);
-  // Over the last period. Erickson & Maksimovic (2001) ch. 2; docs/references.md
+  // Over the last period. Erickson & Maksimovic (2001) ch. 2; netlists/references.md
   // sec. 8: dI 18 A, Iv -4 A, Ipk 14 A.
   const auto& t = waves.time();
   const auto& il = waves.Get("i(l1)");
@@ -82,7 +82,7 @@ TEST(ResonantCheckCaseTest, RippleValleyAndPeakCurrents) {
   EXPECT_NEAR(lo, -4.0, 0.02 * 4.0);
   EXPECT_NEAR(hi, 14.0, 0.02 * 14.0);
   // The low-side swing starts from the peak current: 6.82 ns (resonant; the
-  // linear approximation 2*C*Vin/Ipk gives 6.86 ns). docs/references.md sec. 8;
+  // linear approximation 2*C*Vin/Ipk gives 6.86 ns). netlists/references.md sec. 8;
   // Mohan et al. (2003), soft-switching chapter.
   const EdgeMeasurement& down = EdgeOf(r, "low_on");
   EXPECT_NEAR(down.Get("t_zvs_s"), 6.82e-9, 0.02 * 6.82e-9);
@@ -105,7 +105,7 @@ TEST(ResonantCheckCaseTest, HighSideTransitionAndRingBack) {
   ASSERT_NEAR(-up.Get("i_commutated_a"), 4.0, 0.005 * 4.0);
 
   // 0 -> Vin in 24.32 ns, 3.70 A left at the end, longest dead time before
-  // ring-back 127.1 ns. docs/references.md sec. 2 and 8 (derived; same analysis as
+  // ring-back 127.1 ns. netlists/references.md sec. 2 and 8 (derived; same analysis as
   // Vorperian, IEEE Trans. Power Electron. 3(2), 1988).
   EXPECT_NEAR(up.Get("t_zvs_s"), 24.32e-9, 0.02 * 24.32e-9);
   const auto& t = waves.time();
@@ -124,7 +124,7 @@ TEST(ResonantCheckCaseTest, HighSideTransitionAndRingBack) {
 // turn-off instant does not depend on td_lh, so the operating point holds),
 // is the time the node needs to come within the 0.5 V criterion of the rail:
 // v(t) = Vo*(1 - cos wt) + I0*Z*sin wt = Vin - 0.5 V, Z = sqrt(L/Ceq),
-// w = 1/sqrt(L*Ceq), Ceq = 2*c0. docs/references.md sec. 2 (derived; same
+// w = 1/sqrt(L*Ceq), Ceq = 2*c0. netlists/references.md sec. 2 (derived; same
 // analysis as Vorperian, "Quasi-square-wave converters", IEEE Trans. Power
 // Electron. 3(2), 1988). Within 3 %.
 TEST(ResonantCheckCaseTest, TimingMarginZeroIsTheResonantArcTime) {

@@ -41,7 +41,7 @@ TEST(SteadyStateReferenceTest, ShootingEqualsAThousandPeriodRun) {
       << error.Format();
   SweepSpec spec;
   spec.simulation.max_step_s = 4e-9;
-  // Valley current near -1 A, below the ZVS threshold (1.5 A, docs/references.md
+  // Valley current near -1 A, below the ZVS threshold (1.5 A, netlists/references.md
   // sec. 8): the high switch turns on at a clearly non-zero voltage.
   std::vector<ParamValue> values = {{"Iout", 8}, {"Cout", 2.2e-6}, {"td_lh", 40e-9}};
   const double period = 2e-6;

@@ -1,5 +1,5 @@
 // The generic switch library and the user's own models in real ngspice:
-// characterisation against the closed forms of docs/references.md section 6, a
+// characterisation against the closed forms of netlists/references.md section 6, a
 // user subcircuit with another pin order against the generic model, and body-
 // diode reverse recovery in the hard turn-on energy.
 #include <gtest/gtest.h>
@@ -46,7 +46,7 @@ class SwitchModelsTest : public ::testing::Test {
 // Junction form C0/(1 + V/Vj)^m with x = V/Vj:
 //   Q(V) = C0 Vj/(1 - m) [(1 + x)^(1 - m) - 1]
 //   E(V) = C0 Vj^2 [((1 + x)^(2 - m) - 1)/(2 - m) - ((1 + x)^(1 - m) - 1)/(1 - m)]
-// docs/references.md section 6 (derived from the textbook junction capacitance).
+// netlists/references.md section 6 (derived from the textbook junction capacitance).
 double JunctionQ(double c0, double vj, double m, double v) {
   double x = v / vj;
   return c0 * vj / (1 - m) * (std::pow(1 + x, 1 - m) - 1);
@@ -77,13 +77,13 @@ TEST_F(SwitchModelsTest, JunctionChargeAndEnergyMatchTheClosedForms) {
     for (const CossRow& row : table.coss) {
       double q = JunctionQ(c.c0, c.vj, c.m, row.v_v), e = JunctionE(c.c0, c.vj, c.m, row.v_v);
       EXPECT_NEAR(row.q_c, q, 0.01 * q)
-          << params << " at " << row.v_v << " V";  // docs/references.md sec. 6
+          << params << " at " << row.v_v << " V";  // netlists/references.md sec. 6
       EXPECT_NEAR(row.e_j, e, 0.01 * e)
-          << params << " at " << row.v_v << " V";  // docs/references.md sec. 6
+          << params << " at " << row.v_v << " V";  // netlists/references.md sec. 6
       double cv = c.c0 / std::pow(1 + row.v_v / c.vj, c.m);
       EXPECT_NEAR(row.c_f, cv, 0.01 * cv)
           << params << " at " << row.v_v << " V";  // the form itself
-      // Datasheet conventions Co(tr) = Q/V, Co(er) = 2E/V^2 (docs/references.md sec. 6).
+      // Datasheet conventions Co(tr) = Q/V, Co(er) = 2E/V^2 (netlists/references.md sec. 6).
       EXPECT_NEAR(row.co_tr_f, q / row.v_v, 0.01 * q / row.v_v);
       EXPECT_NEAR(row.co_er_f, 2 * e / (row.v_v * row.v_v), 0.01 * 2 * e / (row.v_v * row.v_v));
     }
@@ -91,7 +91,7 @@ TEST_F(SwitchModelsTest, JunctionChargeAndEnergyMatchTheClosedForms) {
 }
 
 // zsw_vdmos (netlists/switches.lib): with the gate at the source, Coss is the
-// reverse diode's junction capacitance (closed forms above, docs/references.md
+// reverse diode's junction capacitance (closed forms above, netlists/references.md
 // sec. 6) plus ngspice's VDMOS gate-drain capacitance
 //   Cgd(V) = y - s*atan(a*V),  s = (Cmax - Cmin)/(1 + pi/2),  y = Cmax - s
 // (ngspice 39 source, devsup.c DevCapVDMOS, vgd = -V), integrated in closed form:
@@ -243,7 +243,7 @@ TEST_F(SwitchModelsTest, SiliconRecoveryAddsToTheHardTurnOnEnergyWideBandgapDoes
   // Wide-bandgap-like: no stored charge. Its turn-on energy is the output-
   // capacitance energy (own E(V) dumped in the channel plus Q(V) V - E(V) to
   // charge the other switch; closed forms of netlists/switches.lib,
-  // docs/references.md sec. 6) plus current-voltage overlap, with nothing of the order of a
+  // netlists/references.md sec. 6) plus current-voltage overlap, with nothing of the order of a
   // recovery charge on top.
   auto q = [](double v) { return 250e-12 * v + JunctionQ(3e-9, 5, 2.5, v); };
   auto e = [](double v) { return 250e-12 * v * v / 2 + JunctionE(3e-9, 5, 2.5, v); };

@@ -78,7 +78,7 @@ TEST_F(SweepExpandTest, ValueOrderFixedAxesDerived) {
 }
 
 TEST_F(SweepExpandTest, DerivedUsesEarlierDerived) {
-  // Ripple dI = (Vin - Vo) D / (L fs); docs/references.md section 8 check case:
+  // Ripple dI = (Vin - Vo) D / (L fs); netlists/references.md section 8 check case:
   // 48 V -> 12 V, 1 uH, 500 kHz gives dI = 18 A and Iv = Io - dI/2 = -4 A at 5 A
   // (Erickson & Maksimovic 2001, ch. 2).
   std::vector<Point> points =

@@ -187,7 +187,7 @@ TEST_F(SweepParserTest, ZvsResidual) {
   EXPECT_DOUBLE_EQ(spec.zvs.value, 0.5);
   spec = Parse(Sweep("  <zvs residual=\"10%\"/>\n"));
   EXPECT_EQ(spec.zvs.Describe(), "v_turn_on <= 10% of rail");
-  // The "10 % of the input voltage" convention, docs/references.md section 6 [common].
+  // The "10 % of the input voltage" convention, netlists/references.md section 6 [common].
   EXPECT_DOUBLE_EQ(spec.zvs.Limit(48), 4.8);
   spec = Parse(Sweep("  <zvs residual=\"2.5%\"/>\n"));
   EXPECT_EQ(spec.zvs.Describe(), "v_turn_on <= 2.5% of rail");

@@ -32,7 +32,7 @@ TEST_F(SweepSpecTest, GridSizeSaturates) {
 }
 
 TEST_F(SweepSpecTest, ZvsDescribe) {
-  // The "10 % of the rail" convention, docs/references.md section 6 [common].
+  // The "10 % of the rail" convention, netlists/references.md section 6 [common].
   ZvsCriterion fraction;
   EXPECT_EQ(fraction.Describe(), "v_turn_on <= 10% of rail");
   EXPECT_DOUBLE_EQ(fraction.Limit(400), 40);
