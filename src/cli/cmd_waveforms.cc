@@ -102,7 +102,7 @@ int ExportWaveformsInChild(const PreparedSweep& sweep, const std::vector<PointRe
     std::fprintf(stderr, "zvsmap: error: waveform export crashed (signal %d)\n", end.code);
     return kExitInternal;
   }
-  return end.code;
+  return end.code >= 0 ? end.code : kExitInternal;
 }
 namespace {
 

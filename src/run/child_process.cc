@@ -96,6 +96,8 @@ ChildEnd ChildProcess::Collect(int options, bool* done) {
     end.code = WTERMSIG(status);
   } else if (got == pid_ && WIFEXITED(status)) {
     end.code = WEXITSTATUS(status);
+  } else {
+    end.code = -1;
   }
   end.peak_rss_bytes = static_cast<uint64_t>(usage.ru_maxrss) * 1024;  // ru_maxrss is in KiB
   if (fd_ >= 0) close(fd_);

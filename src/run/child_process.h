@@ -16,7 +16,9 @@ namespace zvsmap {
 struct ChildEnd {
   enum class Kind { kExited, kSignaled, kTimedOut };
   Kind kind = Kind::kExited;
-  int code = 0;                 ///< exit status (kExited) or signal number (kSignaled)
+  /// Exit status (kExited; -1 when the child could not be waited for) or
+  /// signal number (kSignaled).
+  int code = 0;
   uint64_t peak_rss_bytes = 0;  ///< peak resident size (wait4's ru_maxrss)
 };
 
