@@ -19,7 +19,10 @@ sweep=$src/tests/e2e/fixtures/small_buck.xml
 fail() { echo "FAIL: $*" >&2; exit 1; }
 
 # A finished run to merge from.
-"$zvsmap" run "$sweep" --out "$work/src" -j 2 -q 2>"$work/src.log" || fail "run: $(cat "$work/src.log")"
+ZVSMAP_TEST_FAULT=segv:0 "$zvsmap" run "$sweep" --out "$work/src" -j 2 -q 2>"$work/src.log" \
+  || fail "run: $(cat "$work/src.log")"
+# zvsmap itself reads no fault plan: only the test-only binary does.
+grep -q "6 points: 6 ok, 0 failed" "$work/src.log" || fail "zvsmap obeyed a fault plan: $(cat "$work/src.log")"
 
 # --- the lock, and progress while a point hangs --------------------------------
 # Point 0 hangs until its 12 s timeout; meanwhile the directory is in use.
