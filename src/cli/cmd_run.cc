@@ -58,7 +58,7 @@ struct Options {
   bool no_retry_failed = false;
   std::string shard;
   size_t shards = 0;
-  std::string waveforms;  ///< "worst" and/or point indices, comma-separated; "" = none
+  std::string waveforms;      ///< "worst" and/or point indices, comma-separated; "" = none
   std::string worker_memory;  ///< per-worker memory bound, e.g. "2G"; "" = the default
 };
 
@@ -80,13 +80,12 @@ bool RemoveSavedWaveforms(const std::string& out_dir, std::string* error) {
   return true;
 }
 
-int Run(const Options& opts) {
+int Run(const Options& opts, const CliSeams& seams) {
   auto started = std::chrono::steady_clock::now();
   WaveformRequest wave_request;
   if (!opts.waveforms.empty()) {
     std::string why;
-    if (!ParseWaveformSelection(opts.waveforms, &wave_request.worst, &wave_request.indices,
-                                &why)) {
+    if (!ParseWaveformSelection(opts.waveforms, &wave_request.worst, &wave_request.indices, &why)) {
       std::fprintf(stderr, "zvsmap: error: --waveforms: %s\n", why.c_str());
       return kExitBadInput;
     }
@@ -191,9 +190,8 @@ int Run(const Options& opts) {
       mine = ShardPointIndices(sweep.points.size(), *shard);
       shard_text = shard->Describe();
       if (!opts.quiet) {
-        std::fprintf(stderr, "zvsmap: shard %s (from %s): %zu of %zu points\n",
-                     shard_text.c_str(), shard->source.c_str(), mine.size(),
-                     sweep.points.size());
+        std::fprintf(stderr, "zvsmap: shard %s (from %s): %zu of %zu points\n", shard_text.c_str(),
+                     shard->source.c_str(), mine.size(), sweep.points.size());
       }
     } else {
       for (size_t i = 0; i < sweep.points.size(); ++i) mine.push_back(i);
@@ -258,15 +256,14 @@ int Run(const Options& opts) {
     pool_options.timeout_s = opts.timeout_s > 0 ? opts.timeout_s : sweep.spec.simulation.timeout_s;
     pool_options.recycle_after = opts.recycle;
     pool_options.memory_bound_bytes = memory_bound;
-    // Test-only fault switch (see WorkerPoolOptions::fault_spec).
-    if (const char* fault = std::getenv("ZVSMAP_TEST_FAULT")) pool_options.fault_spec = fault;
     ProgressReporter progress(stderr, mode, mine.size(), kept, kept_failed);
     pool_options.on_tick = [&progress] { progress.Tick(); };
-    WorkerPool pool(
-        [&](size_t index, Simulator& simulator) {
-          return evaluator.Evaluate(sweep.points[index], simulator);
-        },
-        [] { return std::make_unique<NgspiceSimulator>(); }, pool_options);
+    WorkerSetup setup{[&](size_t index, Simulator& simulator) {
+                        return evaluator.Evaluate(sweep.points[index], simulator);
+                      },
+                      [] { return std::make_unique<NgspiceSimulator>(); }};
+    if (seams.workers) setup = seams.workers(std::move(setup));
+    WorkerPool pool(std::move(setup.job), std::move(setup.factory), pool_options);
     g_stop = 0;
     InstallStopHandlers();
     PoolOutcome outcome = pool.Run(
@@ -316,7 +313,7 @@ int Run(const Options& opts) {
 
 }  // namespace
 
-void AddRunCommand(CLI::App& app, int* exit_code) {
+void AddRunCommand(CLI::App& app, int* exit_code, const CliSeams& seams) {
   auto opts = std::make_shared<Options>();
   CLI::App* cmd = app.add_subcommand(
       "run", "Simulate every point of a sweep and write the reports (resumes into DIR)");
@@ -345,10 +342,11 @@ void AddRunCommand(CLI::App& app, int* exit_code) {
                   "(SLURM_ARRAY_TASK_*) or JOB_COMPLETION_INDEX with --shards");
   cmd->add_option("--shards", opts->shards,
                   "Number of shards when the index comes from JOB_COMPLETION_INDEX");
-  cmd->add_option("--waveforms", opts->waveforms,
-                  "After the run, save settled waveforms and edge plots into DIR/waveforms for "
-                  "'worst' (each cell and edge's worst point) and/or point indices, e.g. worst,3,7");
-  cmd->callback([opts, exit_code] { *exit_code = Run(*opts); });
+  cmd->add_option(
+      "--waveforms", opts->waveforms,
+      "After the run, save settled waveforms and edge plots into DIR/waveforms for "
+      "'worst' (each cell and edge's worst point) and/or point indices, e.g. worst,3,7");
+  cmd->callback([opts, exit_code, seams] { *exit_code = Run(*opts, seams); });
 }
 
 }  // namespace zvsmap::cli

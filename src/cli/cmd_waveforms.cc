@@ -4,20 +4,16 @@
 #include "cli/cmd_waveforms.h"
 
 #include <signal.h>
-#include <sys/wait.h>
-#include <unistd.h>
 
 #include <algorithm>
-#include <cerrno>
-#include <chrono>
 #include <cstdio>
 #include <filesystem>
 #include <memory>
-#include <thread>
 
 #include "cli/commands.h"
 #include "cli/exit_codes.h"
 #include "core/dir_lock.h"
+#include "run/child_process.h"
 #include "run/point_evaluator.h"
 #include "run/run_plan.h"
 #include "run/waveform_export.h"
@@ -30,8 +26,8 @@ namespace zvsmap::cli {
 
 namespace {
 
-[[noreturn]] void ChildMain(const PreparedSweep& sweep, const std::vector<size_t>& indices,
-                            const std::string& out_dir, bool quiet) {
+int ChildMain(const PreparedSweep& sweep, const std::vector<size_t>& indices,
+              const std::string& out_dir, bool quiet) {
   signal(SIGINT, SIG_DFL);
   signal(SIGTERM, SIG_DFL);
   int rc = kExitOk;
@@ -47,9 +43,7 @@ namespace {
       }
     }
   }
-  std::fflush(stderr);
-  std::fflush(stdout);
-  _exit(rc);  // no atexit handlers or static destructors in a forked copy
+  return rc;  // ChildProcess _exits with it (no atexit handlers in a forked copy)
 }
 
 }  // namespace
@@ -75,7 +69,7 @@ int ExportWaveformsInChild(const PreparedSweep& sweep, const std::vector<PointRe
   if (unique.empty()) return kExitPointsFailed;
 
   // Per point: the given limit, else the sweep's, else the pool's rule
-  // (DerivedTimeout) over the stored run's time, else 300 s.
+  // (DerivedTimeout, run/child_process.h) over the stored run's time, else 300 s.
   double total_s = 0;
   for (size_t i : unique) {
     double t = request.timeout_s > 0 ? request.timeout_s : sweep.spec.simulation.timeout_s;
@@ -87,43 +81,29 @@ int ExportWaveformsInChild(const PreparedSweep& sweep, const std::vector<PointRe
     total_s += t;
   }
 
-  std::fflush(stderr);
-  std::fflush(stdout);
-  pid_t pid = fork();
-  if (pid < 0) {
-    std::perror("zvsmap: error: fork");
+  ChildProcess child;
+  std::string error;
+  if (!child.Start([&](int) { return ChildMain(sweep, unique, out_dir, request.quiet); }, {},
+                   &error)) {
+    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitInternal;
   }
-  if (pid == 0) ChildMain(sweep, unique, out_dir, request.quiet);
-
-  auto deadline = std::chrono::steady_clock::now() + std::chrono::duration<double>(total_s);
-  int status = 0;
-  for (;;) {
-    pid_t done = waitpid(pid, &status, WNOHANG);
-    if (done == pid) break;
-    if (done < 0 && errno != EINTR) {
-      std::perror("zvsmap: error: waitpid");
-      return kExitInternal;
-    }
-    if (std::chrono::steady_clock::now() > deadline) {
-      kill(pid, SIGKILL);
-      waitpid(pid, &status, 0);
-      std::fprintf(stderr, "zvsmap: error: waveform export timed out after %.0f s\n", total_s);
-      return kExitInternal;
-    }
-    std::this_thread::sleep_for(std::chrono::milliseconds(20));
+  ChildEnd end = child.WaitFor(total_s);
+  if (end.kind == ChildEnd::Kind::kTimedOut) {
+    std::fprintf(stderr, "zvsmap: error: waveform export timed out after %.0f s\n", total_s);
+    return kExitInternal;
   }
-  if (WIFSIGNALED(status) && (WTERMSIG(status) == SIGINT || WTERMSIG(status) == SIGTERM)) {
+  bool signaled = end.kind == ChildEnd::Kind::kSignaled;
+  if (signaled && (end.code == SIGINT || end.code == SIGTERM)) {
     std::fprintf(stderr, "zvsmap: waveform export interrupted\n");
     return kExitInterrupted;
   }
-  if (WIFSIGNALED(status)) {
-    std::fprintf(stderr, "zvsmap: error: waveform export crashed (signal %d)\n", WTERMSIG(status));
+  if (signaled) {
+    std::fprintf(stderr, "zvsmap: error: waveform export crashed (signal %d)\n", end.code);
     return kExitInternal;
   }
-  return WIFEXITED(status) ? WEXITSTATUS(status) : kExitInternal;
+  return end.code >= 0 ? end.code : kExitInternal;
 }
-
 namespace {
 
 struct Options {

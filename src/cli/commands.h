@@ -4,12 +4,14 @@
 #include <CLI/App.hpp>
 #include <vector>
 
+#include "cli/run_cli.h"
 #include "core/diagnostic.h"
 
 namespace zvsmap::cli {
 
-/// Adds `zvsmap run`; `*exit_code` receives the command's exit status.
-void AddRunCommand(CLI::App& app, int* exit_code);
+/// Adds `zvsmap run`; `*exit_code` receives the command's exit status;
+/// `seams.workers` (when set) adapts the workers' job and simulator factory.
+void AddRunCommand(CLI::App& app, int* exit_code, const CliSeams& seams);
 /// Adds `zvsmap merge` (join shard stores and write the reports).
 void AddMergeCommand(CLI::App& app, int* exit_code);
 /// Adds `zvsmap waveforms` (chosen points' settled waveforms as raw files and edge plots).

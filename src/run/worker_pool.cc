@@ -3,25 +3,20 @@
 #include <fcntl.h>
 #include <poll.h>
 #include <sys/prctl.h>
-#include <sys/resource.h>
 #include <sys/socket.h>
 #include <sys/stat.h>
-#include <sys/wait.h>
 #include <unistd.h>
 
 #include <algorithm>
 #include <cerrno>
 #include <chrono>
 #include <cstdint>
-#include <cstdio>
 #include <cstdlib>
 #include <cstring>
 #include <deque>
 #include <filesystem>
-#include <map>
 #include <memory>
 #include <new>
-#include <stdexcept>
 #include <vector>
 
 #include "result/result_codec.h"
@@ -35,29 +30,6 @@ using Clock = std::chrono::steady_clock;
 // Message from worker to parent: u32 payload length, u8 flags, payload.
 constexpr uint8_t kFlagExiting = 1;  // the worker quits after this message
 constexpr size_t kHeader = 5;
-
-enum class Fault { kNone, kHang, kSegv, kExitCallback, kHog };
-
-std::map<size_t, Fault> ParseFaults(const std::string& spec) {
-  std::map<size_t, Fault> faults;
-  size_t pos = 0;
-  while (pos < spec.size()) {
-    size_t end = spec.find(',', pos);
-    if (end == std::string::npos) end = spec.size();
-    std::string item = spec.substr(pos, end - pos);
-    size_t colon = item.find(':');
-    if (colon != std::string::npos) {
-      std::string kind = item.substr(0, colon);
-      size_t index = std::strtoull(item.c_str() + colon + 1, nullptr, 10);
-      if (kind == "hang") faults[index] = Fault::kHang;
-      if (kind == "segv") faults[index] = Fault::kSegv;
-      if (kind == "exitcb") faults[index] = Fault::kExitCallback;
-      if (kind == "hog") faults[index] = Fault::kHog;
-    }
-    pos = end + 1;
-  }
-  return faults;
-}
 
 // Passes runs through and remembers whether the simulator became unusable.
 class PoisonWatch : public Simulator {
@@ -99,51 +71,17 @@ bool ReadAll(int fd, char* data, size_t size) {
   return true;
 }
 
-std::string Seconds(double s) {
-  char buf[32];
-  std::snprintf(buf, sizeof buf, "%.3g", s);
-  return buf;
-}
-
-// The hog fault: grows by touched 16 MiB blocks until an allocation fails
-// (std::bad_alloc, as the bound makes it) or the cap is reached.
-std::string HogMemory(uint64_t bound) {
-  const uint64_t cap = std::min<uint64_t>(bound > 0 ? 2 * bound : 0, 8ull << 30);
-  std::vector<std::unique_ptr<char[]>> blocks;
-  const size_t block = 16u << 20;
-  for (uint64_t total = 0; total < cap; total += block) {
-    blocks.emplace_back(new char[block]);
-    std::memset(blocks.back().get(), 1, block);
-  }
-  return "test fault: the memory bound did not stop the hog";
-}
-
-std::string DeathReason(int status) {
-  if (WIFSIGNALED(status)) return "crash (signal " + std::to_string(WTERMSIG(status)) + ")";
-  if (WIFEXITED(status)) return "crash (exit " + std::to_string(WEXITSTATUS(status)) + ")";
-  return "crash";
-}
-
 }  // namespace
 
-double DerivedTimeout(const std::vector<double>& first_durations_s) {
-  if (first_durations_s.empty()) return 300;
-  double longest = 0;
-  for (size_t i = 0; i < first_durations_s.size() && i < 3; ++i) {
-    longest = std::max(longest, first_durations_s[i]);
-  }
-  return std::max(30.0, 20 * longest);
-}
-
 struct WorkerPool::Worker {
-  pid_t pid = -1;
-  int fd = -1;
+  ChildProcess child;
   bool busy = false;
   size_t index = 0;
   Clock::time_point started;
   std::string inbox;
   size_t points_done = 0;
-  bool alive() const { return pid > 0; }
+  bool alive() const { return child.running(); }
+  int fd() const { return child.fd(); }
 };
 
 WorkerPool::WorkerPool(PointJob job, SimulatorFactory factory, WorkerPoolOptions options)
@@ -165,50 +103,39 @@ WorkerPool::~WorkerPool() {
 
 void WorkerPool::Retire(Worker* w) {
   if (!w->alive()) return;
-  close(w->fd);
-  kill(w->pid, SIGKILL);
-  while (waitpid(w->pid, nullptr, 0) < 0 && errno == EINTR) {
-  }
-  w->pid = -1;
-  w->fd = -1;
+  w->child.Kill();
   w->busy = false;
   w->inbox.clear();
 }
 
 bool WorkerPool::Spawn(Worker* w, std::string* error) {
-  int fds[2];
-  if (socketpair(AF_UNIX, SOCK_STREAM, 0, fds) != 0) {
-    *error = std::string("socketpair: ") + std::strerror(errno);
-    return false;
-  }
-  std::fflush(nullptr);  // nothing buffered may be written twice
-  pid_t pid = fork();
-  if (pid < 0) {
-    *error = std::string("fork: ") + std::strerror(errno);
-    close(fds[0]);
-    close(fds[1]);
-    return false;
-  }
-  if (pid == 0) {
-    close(fds[0]);
-    // Other workers' sockets must close here, or their EOF never arrives.
-    for (auto& other : workers_) {
-      if (other->fd >= 0) close(other->fd);
-    }
-    WorkerMain(fds[1]);
-  }
-  close(fds[1]);
-  fcntl(fds[0], F_SETFL, fcntl(fds[0], F_GETFL) | O_NONBLOCK);
-  fcntl(fds[0], F_SETFD, FD_CLOEXEC);
-  w->pid = pid;
-  w->fd = fds[0];
+  std::vector<int> others;
+  for (auto& other : workers_) others.push_back(other->fd());
+  if (!w->child.Start([this](int fd) { return WorkerMain(fd); }, others, error)) return false;
+  fcntl(w->fd(), F_SETFL, fcntl(w->fd(), F_GETFL) | O_NONBLOCK);
   w->busy = false;
   w->inbox.clear();
   w->points_done = 0;
   return true;
 }
 
-void WorkerPool::WorkerMain(int fd) {
+PointResult WorkerPool::RunJob(size_t index, Simulator& simulator) {
+  PointResult result;
+  try {
+    result = job_(index, simulator);
+  } catch (const std::bad_alloc&) {
+    result = PointResult();
+    result.index = index;
+    result.reason = MemoryBoundReason(options_.memory_bound_bytes, "");
+  } catch (const std::exception& e) {
+    result = PointResult();
+    result.index = index;
+    result.reason = std::string("internal error: ") + e.what();
+  }
+  return result;
+}
+
+int WorkerPool::WorkerMain(int fd) {
   // The parent decides when a worker ends: Ctrl-C reaches the whole process
   // group, so workers ignore SIGINT; SIGTERM kills them; they die with the parent.
   signal(SIGINT, SIG_IGN);
@@ -223,7 +150,6 @@ void WorkerPool::WorkerMain(int fd) {
   setenv("HOME", dir.c_str(), 1);
   ApplyMemoryBound(options_.memory_bound_bytes);
 
-  std::map<size_t, Fault> faults = ParseFaults(options_.fault_spec);
   std::unique_ptr<Simulator> simulator;
   try {
     simulator = factory_();
@@ -234,38 +160,12 @@ void WorkerPool::WorkerMain(int fd) {
   for (;;) {
     uint64_t index = 0;
     if (!ReadAll(fd, reinterpret_cast<char*>(&index), sizeof index)) _exit(0);
-    auto fault = faults.find(static_cast<size_t>(index));
-    Fault kind = fault == faults.end() ? Fault::kNone : fault->second;
-    if (kind == Fault::kHang) {
-      for (;;) pause();
-    }
-    if (kind == Fault::kSegv) {
-      signal(SIGSEGV, SIG_DFL);  // die by the signal even under a sanitizer's handler
-      raise(SIGSEGV);
-    }
-    PointResult result;
-    if (kind == Fault::kExitCallback) {
-      result.index = static_cast<size_t>(index);
-      result.reason = "engine error: ngspice stopped (exit callback; test fault)";
-    } else {
-      try {
-        if (kind == Fault::kHog) throw std::runtime_error(HogMemory(options_.memory_bound_bytes));
-        result = job_(static_cast<size_t>(index), watch);
-      } catch (const std::bad_alloc&) {
-        result = PointResult();
-        result.index = static_cast<size_t>(index);
-        result.reason = MemoryBoundReason(options_.memory_bound_bytes, "");
-      } catch (const std::exception& e) {
-        result = PointResult();
-        result.index = static_cast<size_t>(index);
-        result.reason = std::string("internal error: ") + e.what();
-      }
-    }
+    PointResult result = RunJob(static_cast<size_t>(index), watch);
     if (options_.memory_bound_bytes > 0 && result.status != PointStatus::kOk &&
         result.reason.rfind("memory bound", 0) != 0 && LooksLikeAllocationFailure(result.reason)) {
       result.reason = MemoryBoundReason(options_.memory_bound_bytes, result.reason);
     }
-    bool exiting = watch.poisoned() || kind == Fault::kExitCallback;
+    bool exiting = watch.poisoned();
     std::string payload = EncodeResult(result);
     char header[kHeader];
     uint32_t size = static_cast<uint32_t>(payload.size());
@@ -329,7 +229,7 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
       }
       if (w.busy) continue;
       uint64_t index = queue.front();
-      if (!WriteAll(w.fd, reinterpret_cast<const char*>(&index), sizeof index)) {
+      if (!WriteAll(w.fd(), reinterpret_cast<const char*>(&index), sizeof index)) {
         Retire(&w);  // died while idle; respawned on the next pass
         if (++idle_deaths > 3 * static_cast<size_t>(jobs_) + 3) {
           outcome.ok = false;
@@ -342,7 +242,7 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
       w.busy = true;
       w.index = static_cast<size_t>(index);
       w.started = Clock::now();
-      if (options_.on_dispatch) options_.on_dispatch(w.index, w.pid);
+      if (options_.on_dispatch) options_.on_dispatch(w.index, w.child.pid());
     }
 
     double timeout_s =
@@ -352,7 +252,7 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
     int wait_ms = 250;
     for (auto& wp : workers_) {
       if (!wp->alive()) continue;
-      fds.push_back({wp->fd, POLLIN, 0});
+      fds.push_back({wp->fd(), POLLIN, 0});
       polled.push_back(wp.get());
       if (wp->busy) {
         double left_ms = (timeout_s - elapsed(*wp)) * 1000;
@@ -375,7 +275,7 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
       bool eof = false;
       char buf[65536];
       for (;;) {
-        ssize_t got = read(w.fd, buf, sizeof buf);
+        ssize_t got = read(w.fd(), buf, sizeof buf);
         if (got > 0) {
           w.inbox.append(buf, static_cast<size_t>(got));
           continue;
@@ -407,23 +307,13 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
       }
       if (eof && !exiting) {
         // Died: reap it and say how.
-        close(w.fd);
-        int status = 0;
-        struct rusage usage {};
-        while (wait4(w.pid, &status, 0, &usage) < 0 && errno == EINTR) {
-        }
-        w.pid = -1;
-        w.fd = -1;
+        ChildEnd end = w.child.Reap();
         w.inbox.clear();
-        uint64_t peak = static_cast<uint64_t>(usage.ru_maxrss) * 1024;  // ru_maxrss is in KiB
-        uint64_t bound = options_.memory_bound_bytes;
-        if (w.busy && bound > 0 && peak >= bound / 2) {
-          fail_point(w, MemoryBoundReason(bound, DeathReason(status)));
-        } else if (w.busy) {
-          fail_point(w, DeathReason(status));
+        if (w.busy) {
+          fail_point(w, CrashReason(end, options_.memory_bound_bytes));
         } else if (++idle_deaths > 3 * static_cast<size_t>(jobs_) + 3) {
           outcome.ok = false;
-          outcome.error = "workers keep dying before they run a point: " + DeathReason(status);
+          outcome.error = "workers keep dying before they run a point: " + CrashReason(end, 0);
           for (auto& x : workers_) Retire(x.get());
           return outcome;
         }
@@ -441,7 +331,7 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
         double took = elapsed(w);
         size_t index = w.index;
         Retire(&w);
-        report_failure(index, took, "timeout after " + Seconds(timeout_s) + " s");
+        report_failure(index, took, TimeoutReason(timeout_s));
       }
     }
   }

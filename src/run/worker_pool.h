@@ -13,6 +13,7 @@
 #include <vector>
 
 #include "result/point_result.h"
+#include "run/child_process.h"
 #include "sim/simulator.h"
 
 namespace zvsmap {
@@ -22,6 +23,14 @@ using PointJob = std::function<PointResult(size_t index, Simulator& simulator)>;
 /// Creates a worker's simulator; called in the worker process, never in the parent.
 using SimulatorFactory = std::function<std::unique_ptr<Simulator>()>;
 
+/// The two seams a pool's workers are built from. Tests put faults in
+/// through them (a job or simulator that crashes, hangs, stops the engine or
+/// allocates without end); production code reads no fault from anywhere.
+struct WorkerSetup {
+  PointJob job;
+  SimulatorFactory factory;
+};
+
 /// How the pool runs its workers.
 struct WorkerPoolOptions {
   int jobs = 0;                ///< worker processes; 0 = number of online CPUs
@@ -30,25 +39,12 @@ struct WorkerPoolOptions {
   /// Each worker's address-space bound in bytes (RLIMIT_AS, run/memory_bound.h);
   /// 0 = none. A point that runs into it fails with MemoryBoundReason.
   uint64_t memory_bound_bytes = 0;
-  /// Test-only fault switch, read by the worker loop: a comma list of
-  /// kind:index with kind hang (sleep forever), segv (raise SIGSEGV), exitcb
-  /// (report an engine error as if ngspice's exit callback fired, then quit) or
-  /// hog (allocate and touch memory until the memory bound stops it; at most
-  /// 2 x the bound or 8 GiB, whichever is less, then fail the point).
-  /// cmd_run fills it from the environment variable ZVSMAP_TEST_FAULT.
-  std::string fault_spec;
   /// Test hook, called in the parent when `index` is sent to worker `pid`.
   std::function<void(size_t index, pid_t pid)> on_dispatch;
   /// Called in the parent about every 250 ms while points run, also while
   /// none finishes (drives a progress line's interval).
   std::function<void()> on_tick;
 };
-
-/// Without a set timeout, until a point has finished: 300 s. Afterwards
-/// max(30 s, 20 x the longest of the first three finished points). The one
-/// timeout rule: the waveform export (cmd_waveforms) applies it to the
-/// stored run's time of each point.
-double DerivedTimeout(const std::vector<double>& first_durations_s);
 
 /// What a Run did.
 struct PoolOutcome {
@@ -58,7 +54,7 @@ struct PoolOutcome {
   size_t workers_started = 0;
 };
 
-/// Forks workers on demand, sends them point indices over a socketpair and
+/// Forks workers on demand (ChildProcess), sends them point indices over a socketpair and
 /// collects encoded results. A worker that crashes, exceeds the timeout or
 /// reports a poisoned simulator is killed and replaced; its point gets a
 /// failed result with the reason ("crash (signal N)", "crash (exit N)",
@@ -88,7 +84,8 @@ class WorkerPool {
   struct Worker;
   bool Spawn(Worker* w, std::string* error);
   void Retire(Worker* w);
-  [[noreturn]] void WorkerMain(int fd);
+  int WorkerMain(int fd);  // never returns: the worker _exits
+  PointResult RunJob(size_t index, Simulator& simulator);
 
   PointJob job_;
   SimulatorFactory factory_;

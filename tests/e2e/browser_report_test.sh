@@ -6,9 +6,12 @@
 # (browser_report_check.py). Screenshots stay in OUT_DIR for a person to look
 # at. Exit 77 (skipped) when Chromium is not installed.
 #
-#   browser_report_test.sh ZVSMAP_BINARY SOURCE_DIR OUT_DIR
+# The failures come through the test-only binary zvsmap_faulty (the same
+# command line with the fault plan in ZVSMAP_TEST_FAULT).
+#
+#   browser_report_test.sh ZVSMAP_BINARY SOURCE_DIR OUT_DIR ZVSMAP_FAULTY_BINARY
 set -eu
-bin=$1 src=$2 out=$3
+bin=$1 src=$2 out=$3 faulty=$4
 browser=$(command -v chromium || command -v chromium-browser || true)
 [ -n "$browser" ] || { echo "browser-report: chromium not installed; skipped"; exit 77; }
 rm -rf "$out" && mkdir -p "$out"
@@ -22,7 +25,7 @@ flags="--headless --no-sandbox --disable-gpu --disable-quic --no-first-run
 # crashes and point 4's engine stops (exit 4).
 rc=0; "$bin" run "$src/sweeps/demo_buck_48v_pol.xml" --out "$out/demo" -j 2 -q >"$out/demo.log" 2>&1 || rc=$?
 [ "$rc" = 0 ] || [ "$rc" = 3 ] || { cat "$out/demo.log"; echo "browser-report: demo exit $rc"; exit 1; }
-rc=0; ZVSMAP_TEST_FAULT=segv:3,exitcb:4 "$bin" run "$src/tests/e2e/fixtures/small_buck.xml" \
+rc=0; ZVSMAP_TEST_FAULT=segv:3,exitcb:4 "$faulty" run "$src/tests/e2e/fixtures/small_buck.xml" \
   --out "$out/failures" -j 2 -q >"$out/failures.log" 2>&1 || rc=$?
 [ "$rc" = 4 ] || { cat "$out/failures.log"; echo "browser-report: failures sweep exit $rc, not 4"; exit 1; }
 

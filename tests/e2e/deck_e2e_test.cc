@@ -1,7 +1,7 @@
 // End-to-end tests of the sealed deck through the built binary: which points
 // a rerun keeps after an edit of an included file, a model file, an
 // annotation or a comment (exactly: the points that must be kept get an
-// injected crash through the test-only ZVSMAP_TEST_FAULT, so running one
+// injected crash through the test-only binary zvsmap_faulty, so running one
 // fails the test), and a corpus of hostile inputs, none of which may run a
 // command. Scenarios are invented.
 #include <fcntl.h>
@@ -60,7 +60,8 @@ int RunZvsmapIn(const std::vector<std::string>& args, const std::string& fault, 
       setenv("ZVSMAP_TEST_FAULT", fault.c_str(), 1);
     }
     std::vector<std::string> copy = args;
-    std::string binary = ZVSMAP_BINARY;
+    // Faults need the test-only binary (the same command line, faulty worker seams).
+    std::string binary = fault.empty() ? ZVSMAP_BINARY : ZVSMAP_FAULTY_BINARY;
     std::vector<char*> argv{&binary[0]};
     for (auto& a : copy) argv.push_back(&a[0]);
     argv.push_back(nullptr);

@@ -5,10 +5,13 @@
 # sweep is refused (exit 2) unless --rerun replaces it; `| head -1` does not
 # lose the reports; a point past --worker-memory fails with that reason; a
 # full disk leaves no truncated report (a small tmpfs, when allowed to mount).
-#   guarded_out_test.sh ZVSMAP_BINARY SOURCE_DIR
+# Faults (a hanging point, a memory hog) come through the test-only binary
+# zvsmap_faulty: the same command line with the fault plan in ZVSMAP_TEST_FAULT.
+#   guarded_out_test.sh ZVSMAP_BINARY SOURCE_DIR ZVSMAP_FAULTY_BINARY
 set -euo pipefail
 zvsmap=$1
 src=$2
+faulty=$3
 work=$(mktemp -d /tmp/zvsmap-guard-test-XXXXXX)
 holder=""
 trap '[ -n "$holder" ] && kill -9 "$holder" 2>/dev/null; rm -rf "$work"' EXIT
@@ -16,11 +19,14 @@ sweep=$src/tests/e2e/fixtures/small_buck.xml
 fail() { echo "FAIL: $*" >&2; exit 1; }
 
 # A finished run to merge from.
-"$zvsmap" run "$sweep" --out "$work/src" -j 2 -q 2>"$work/src.log" || fail "run: $(cat "$work/src.log")"
+ZVSMAP_TEST_FAULT=segv:0 "$zvsmap" run "$sweep" --out "$work/src" -j 2 -q 2>"$work/src.log" \
+  || fail "run: $(cat "$work/src.log")"
+# zvsmap itself reads no fault plan: only the test-only binary does.
+grep -q "6 points: 6 ok, 0 failed" "$work/src.log" || fail "zvsmap obeyed a fault plan: $(cat "$work/src.log")"
 
 # --- the lock, and progress while a point hangs --------------------------------
 # Point 0 hangs until its 12 s timeout; meanwhile the directory is in use.
-ZVSMAP_TEST_FAULT=hang:0 "$zvsmap" run "$sweep" --out "$work/busy" -j 1 --timeout 12 \
+ZVSMAP_TEST_FAULT=hang:0 "$faulty" run "$sweep" --out "$work/busy" -j 1 --timeout 12 \
   2>"$work/busy.log" &
 holder=$!
 for _ in $(seq 100); do
@@ -104,7 +110,7 @@ rc=0
 grep -qF "zvsmap: error: --worker-memory: worker memory '0.5x': unknown unit 'x' (use K, M, G or T: powers of 1024)" \
   "$work/mem.log" || fail "bad size message: $(cat "$work/mem.log")"
 rc=0
-ZVSMAP_TEST_FAULT=hog:2 "$zvsmap" run "$sweep" --out "$work/mem" -j 2 --worker-memory 256M \
+ZVSMAP_TEST_FAULT=hog:2 "$faulty" run "$sweep" --out "$work/mem" -j 2 --worker-memory 256M \
   2>"$work/mem.log" || rc=$?
 if grep -q "has no effect in this build" "$work/mem.log"; then
   echo "memory bound: skipped (no bound in a sanitizer build)"

@@ -38,7 +38,6 @@ int RunZvsmapArgs(const std::vector<std::string>& args, std::string* log) {
     int null = open("/dev/null", O_WRONLY);
     dup2(out, 2);
     dup2(null, 1);
-    unsetenv("ZVSMAP_TEST_FAULT");
     std::vector<std::string> copy = args;
     std::string binary = ZVSMAP_BINARY;
     std::vector<char*> argv{&binary[0]};

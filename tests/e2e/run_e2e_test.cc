@@ -1,7 +1,8 @@
 // End-to-end tests: the built zvsmap binary on small fixture sweeps, with
-// real ngspice in its worker processes. Fault injection uses the test-only
-// environment variable ZVSMAP_TEST_FAULT (hang:N, segv:N, exitcb:N), which
-// only the worker loop reads.
+// real ngspice in its worker processes. Faults (hang:N, segv:N, exitcb:N)
+// come through the test-only binary zvsmap_faulty: the same command line with
+// the plan in its environment variable ZVSMAP_TEST_FAULT, put into the
+// workers' simulator and job seams (tests/testing/fault_injection.h).
 #include <fcntl.h>
 #include <gtest/gtest.h>
 #include <signal.h>
@@ -60,7 +61,8 @@ pid_t Start(const std::vector<std::string>& args, const std::string& log_path,
       setenv("ZVSMAP_TEST_FAULT", fault.c_str(), 1);
     }
     std::vector<char*> argv;
-    std::string binary = ZVSMAP_BINARY;
+    // Faults need the test-only binary (the same command line, faulty worker seams).
+    std::string binary = fault.empty() ? ZVSMAP_BINARY : ZVSMAP_FAULTY_BINARY;
     argv.push_back(&binary[0]);
     std::vector<std::string> copy = args;
     for (auto& a : copy) argv.push_back(&a[0]);

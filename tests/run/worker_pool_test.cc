@@ -17,6 +17,7 @@
 
 #include "run/memory_bound.h"
 #include "sim/ngspice_simulator.h"
+#include "testing/fault_injection.h"
 
 namespace zvsmap {
 namespace {
@@ -44,6 +45,14 @@ PointResult Echo(size_t index, Simulator&) {
                      "",
                      {{"twice", 2.0 * index}, {"pid", static_cast<double>(getpid())}}});
   return r;
+}
+
+// `job` and `factory` with faults put in through the pool's seams.
+WorkerSetup Faulty(PointJob job, SimulatorFactory factory, const std::string& plan_text) {
+  testing_support::FaultPlan plan;
+  std::string error;
+  EXPECT_TRUE(testing_support::ParseFaultPlan(plan_text, &plan, &error)) << error;
+  return testing_support::InjectFaults({std::move(job), std::move(factory)}, plan);
 }
 
 std::vector<size_t> Range(size_t n) {
@@ -81,8 +90,8 @@ TEST(WorkerPoolTest, FaultSwitchHangCrashAndExitCallbackFailOnlyTheirPoints) {
   WorkerPoolOptions options;
   options.jobs = 2;
   options.timeout_s = 1;
-  options.fault_spec = "hang:3,segv:5,exitcb:7";
-  WorkerPool pool(Echo, NoSim(), options);
+  WorkerSetup setup = Faulty(Echo, NoSim(), "hang:3,segv:5,exitcb:7");
+  WorkerPool pool(setup.job, setup.factory, options);
   PoolOutcome outcome;
   auto results = RunAll(pool, 10, &outcome);
   EXPECT_TRUE(outcome.ok) << outcome.error;
@@ -174,7 +183,7 @@ TEST(WorkerPoolTest, WorkerRunsInAPrivateDirectoryWithItsOwnHome) {
 }
 
 TEST(WorkerPoolTest, DerivedTimeoutFollowsTheFirstPoints) {
-  // The rule stated in worker_pool.h (our own choice, no source).
+  // The rule stated in child_process.h (our own choice, no source).
   EXPECT_EQ(DerivedTimeout({}), 300);
   EXPECT_EQ(DerivedTimeout({0.5, 1.0}), 30);
   EXPECT_EQ(DerivedTimeout({2.0, 4.0, 1.0, 100.0}), 80);
@@ -255,14 +264,14 @@ TEST(WorkerPoolNgspiceTest, HangingPointTimesOutAndTheRestComplete) {
   WorkerPoolOptions options;
   options.jobs = 2;
   options.timeout_s = 2;
-  options.fault_spec = "hang:1";
-  WorkerPool pool(
+  WorkerSetup setup = Faulty(
       [](size_t index, Simulator& sim) {
         PointResult r = Simulate(0, sim);  // the good netlist for every point
         r.index = index;
         return r;
       },
-      Ngspice(), options);
+      Ngspice(), "hang:1");
+  WorkerPool pool(setup.job, setup.factory, options);
   auto results = RunAll(pool, 5);
   ASSERT_EQ(results.size(), 5u);
   EXPECT_EQ(results[1].reason, "timeout after 2 s");
@@ -327,8 +336,8 @@ TEST(WorkerPoolTest, ACrashFarBelowTheBoundStaysACrash) {
   WorkerPoolOptions options;
   options.jobs = 1;
   options.memory_bound_bytes = 4ull << 30;
-  options.fault_spec = "segv:0";
-  WorkerPool pool(Echo, NoSim(), options);
+  WorkerSetup setup = Faulty(Echo, NoSim(), "segv:0");
+  WorkerPool pool(setup.job, setup.factory, options);
   auto results = RunAll(pool, 2);
   EXPECT_EQ(results[0].reason, "crash (signal 11)");
   EXPECT_EQ(results[1].status, PointStatus::kOk);
@@ -339,8 +348,8 @@ TEST(WorkerPoolTest, HogFaultIsStoppedByTheBound) {
   WorkerPoolOptions options;
   options.jobs = 1;
   options.memory_bound_bytes = kBound;
-  options.fault_spec = "hog:0";
-  WorkerPool pool(Echo, NoSim(), options);
+  WorkerSetup setup = Faulty(Echo, NoSim(), "hog:0");
+  WorkerPool pool(setup.job, setup.factory, options);
   auto results = RunAll(pool, 2);
   EXPECT_EQ(results[0].reason,
             "memory bound: the worker reached its 256 MiB limit (--worker-memory)");
@@ -351,10 +360,10 @@ TEST(WorkerPoolTest, TheTickKeepsComingWhileAPointHangs) {
   WorkerPoolOptions options;
   options.jobs = 1;
   options.timeout_s = 1.5;
-  options.fault_spec = "hang:0";
   int ticks = 0;
   options.on_tick = [&ticks] { ++ticks; };
-  WorkerPool pool(Echo, NoSim(), options);
+  WorkerSetup setup = Faulty(Echo, NoSim(), "hang:0");
+  WorkerPool pool(setup.job, setup.factory, options);
   auto results = RunAll(pool, 1);
   EXPECT_EQ(results[0].reason, "timeout after 1.5 s");
   // The pool polls at most 250 ms at a time: 1.5 s of hanging gives about 6
