@@ -11,16 +11,12 @@
 #include <sstream>
 #include <string>
 
+#include "e2e_support.h"
+
 namespace {
 
 namespace fs = std::filesystem;
-
-std::string ReadText(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+using zvsmap_e2e::ReadText;
 
 class ChecksE2eTest : public ::testing::Test {
  protected:

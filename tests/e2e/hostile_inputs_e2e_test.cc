@@ -18,16 +18,12 @@
 #include <string>
 #include <vector>
 
+#include "e2e_support.h"
+
 namespace {
 
 namespace fs = std::filesystem;
-
-std::string ReadText(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+using zvsmap_e2e::ReadText;
 
 int RunZvsmapArgs(const std::vector<std::string>& args, std::string* log) {
   std::string log_path =

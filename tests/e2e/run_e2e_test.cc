@@ -20,31 +20,15 @@
 #include <thread>
 #include <vector>
 
+#include "e2e_support.h"
+
 namespace {
 
 namespace fs = std::filesystem;
-
-std::string Source(const std::string& relative) {
-  return std::string(ZVSMAP_SOURCE_DIR) + "/" + relative;
-}
-
-std::string ReadText(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
-
-void WriteText(const std::string& path, const std::string& text) {
-  std::ofstream(path, std::ios::binary) << text;
-}
-
-std::string Replace(std::string text, const std::string& from, const std::string& to) {
-  size_t at = text.find(from);
-  EXPECT_NE(at, std::string::npos) << from;
-  if (at != std::string::npos) text.replace(at, from.size(), to);
-  return text;
-}
+using zvsmap_e2e::Source;
+using zvsmap_e2e::ReadText;
+using zvsmap_e2e::WriteText;
+using zvsmap_e2e::Replace;
 
 // Starts zvsmap with `args`; stderr goes to `log_path`, stdout to /dev/null.
 pid_t Start(const std::vector<std::string>& args, const std::string& log_path,

@@ -11,20 +11,13 @@
 #include <sstream>
 #include <string>
 
+#include "e2e_support.h"
+
 namespace {
 
 namespace fs = std::filesystem;
-
-std::string Source(const std::string& relative) {
-  return std::string(ZVSMAP_SOURCE_DIR) + "/" + relative;
-}
-
-std::string ReadText(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+using zvsmap_e2e::Source;
+using zvsmap_e2e::ReadText;
 
 // Runs the binary through the shell; returns its exit status, stdout and stderr.
 int Zvsmap(const std::string& args, std::string* out, std::string* err) {

@@ -14,20 +14,13 @@
 #include <string>
 #include <vector>
 
+#include "e2e_support.h"
+
 namespace {
 
 namespace fs = std::filesystem;
-
-std::string Source(const std::string& relative) {
-  return std::string(ZVSMAP_SOURCE_DIR) + "/" + relative;
-}
-
-std::string ReadText(const std::string& path) {
-  std::ifstream in(path, std::ios::binary);
-  std::ostringstream s;
-  s << in.rdbuf();
-  return s.str();
-}
+using zvsmap_e2e::Source;
+using zvsmap_e2e::ReadText;
 
 // A fresh folder for one test.
 std::string Scratch(const std::string& name) {
