@@ -54,7 +54,8 @@ while IFS= read -r cmd; do
     *SWEEP*|*DIR*|*" N"*|*COMMAND*|*"..."*|*"["*|*'$'*|*"K/N"*|*sweep.xml*) continue ;;
   esac
   ran=$((ran + 1))
-  run=$(printf '%s\n' "$cmd" | sed "s|build/zvsmap|$bin|g; s|/tmp/|$scratch/|g")
+  # /tmp/ first: the binary's own path may lie under /tmp (a clone there).
+  run=$(printf '%s\n' "$cmd" | sed "s|/tmp/|$scratch/|g; s|build/zvsmap|$bin|g")
   out=$(sh -c "$run" 2>&1) || { fail "'$cmd' failed: $(printf '%s' "$out" | tail -n 3)"; continue; }
   case "$cmd" in
     *calibrate*) case "$out" in *"is outside"*) case "$cmd" in *"-V 400"*) ;; *)
