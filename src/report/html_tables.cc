@@ -304,13 +304,13 @@ std::string HtmlEdgeSections(const ReportBasis& input, const std::vector<Plot>& 
   return h;
 }
 
-std::string HtmlAtAGlance(const ReportInput& input) {
-  std::vector<EdgeKey> keys = MeasuredEdges(input.results);
+std::string HtmlAtAGlance(const ReportBasis& input) {
+  const std::vector<EdgeKey>& keys = input.edges;
   if (keys.empty()) return "";
-  Grid grid = BuildGrid(input.spec, input.points);
-  MarginSource margin = ChooseMargin(input.results);
+  const Grid& grid = input.grid;
+  const MarginSource& margin = input.margin;
   std::string unit = margin.column.empty() ? margin.unit : MetricUnit(margin.column);
-  WindowColumns w = FindWindowColumns(input.results);
+  const WindowColumns& w = input.window;
   std::string h =
       "<h2 id=\"at-a-glance\">At a glance</h2>\n" +
       TableStart("glance",
@@ -364,8 +364,8 @@ std::string HtmlAtAGlance(const ReportInput& input) {
   return h + kTableEnd;
 }
 
-std::string HtmlFailedPoints(const ReportInput& input) {
-  Grid grid = BuildGrid(input.spec, input.points);
+std::string HtmlFailedPoints(const ReportBasis& input) {
+  const Grid& grid = input.grid;
   std::string rows;
   int n = 0;
   for (size_t i = 0; i < input.results.size() && i < input.points.size(); ++i) {

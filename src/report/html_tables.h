@@ -25,12 +25,12 @@ std::string HtmlEdgeSections(const ReportBasis& input, const std::vector<Plot>& 
 /// holds, the lowest margin and where, the dead time set, the longest window
 /// start (the shortest dead time that reaches ZVS wherever it is reached) and
 /// the largest hand-calculation difference; "" when no edge was measured.
-std::string HtmlAtAGlance(const ReportInput& input);
+std::string HtmlAtAGlance(const ReportBasis& input);
 
 /// The failed and unsettled points with their reasons, how settling was
 /// attempted and the solver aid the point last ran with (id "failed-points");
 /// a sentence when every point ran.
-std::string HtmlFailedPoints(const ReportInput& input);
+std::string HtmlFailedPoints(const ReportBasis& input);
 
 /// How many points needed each solver aid of the convergence ladder (id
 /// "solver-aids"): a sentence, and a table when any aid was used.

@@ -1,12 +1,12 @@
 #include "run/point_evaluator.h"
 
 #include <algorithm>
-#include <cctype>
 #include <chrono>
 
 #include "analysis/commutation.h"
 #include "analysis/edge_finder.h"
 #include "core/spice_number.h"
+#include "core/text.h"
 #include "handcalc/hand_calculation.h"
 #include "result/edge_identity.h"
 #include "sim/engine_messages.h"
@@ -87,18 +87,13 @@ std::string MapEngineLog(const std::string& log, const Deck& deck) {
   return out;
 }
 
-std::string LowerAscii(std::string s) {
-  for (char& c : s) c = static_cast<char>(std::tolower(static_cast<unsigned char>(c)));
-  return s;
-}
-
 // The point's values with each slow state's init parameter set to `x`.
 std::vector<ParamValue> WithInitialState(std::vector<ParamValue> values,
                                          const std::vector<double>& x, const Template& tmpl) {
   for (size_t i = 0; i < x.size(); ++i) {
     const std::string& name = tmpl.states[i].init_param;
     auto it = std::find_if(values.begin(), values.end(),
-                           [&](const ParamValue& v) { return LowerAscii(v.name) == name; });
+                           [&](const ParamValue& v) { return Lower(v.name) == name; });
     if (it != values.end()) {
       it->value = x[i];
     } else {
