@@ -90,12 +90,46 @@ int Merge(const Options& opts) {
   }
 
   PointEvaluator evaluator(sweep);
-  std::vector<std::string> hashes = PointContentHashes(sweep, evaluator);
   std::string identity = SweepIdentity(sweep.spec.path, sweep.spec.template_path);
   MergeReport merged;
-  if (!MergeStores(stores, identity, sweep.points, hashes, target.get(), &merged, &error)) {
-    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
-    return kExitBadInput;
+  std::vector<std::string> hashes;
+  std::vector<PointResult> results;
+  bool refinement_complete = !sweep.refinement.active;
+  std::string refinement_pending;
+  // A refined sweep's points come round by round: merge what the shards hold
+  // of the rounds so far, plan the next round from the merged results, and
+  // merge again until a round is complete nowhere (it waits for the shards)
+  // or the refinement is complete.
+  for (int round = 1;; ++round) {
+    hashes = PointContentHashes(sweep, evaluator);
+    merged = MergeReport();
+    if (!MergeStores(stores, identity, sweep.points, hashes, target.get(), &merged, &error)) {
+      std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+      return kExitBadInput;
+    }
+    if (!CollectStoredResults(*target, hashes, &results, &error)) {
+      std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+      return kExitInternal;
+    }
+    if (!sweep.refinement.active) break;
+    RoundPlan next;
+    Diagnostic round_error;
+    if (!PlanRound(sweep.spec, sweep.refinement, round, sweep.points, results, &next,
+                   &round_error)) {
+      PrintErrors({round_error});
+      return kExitBadInput;
+    }
+    if (next.waiting) {
+      refinement_pending = next.why_waiting +
+                           " (copy the merged run.sqlite into each shard's directory and run "
+                           "the shards again)";
+      break;
+    }
+    if (next.added.empty()) {
+      refinement_complete = true;
+      break;
+    }
+    for (Point& p : next.added) sweep.points.push_back(std::move(p));
   }
   if (!ClaimStore(*target, sweep.spec.path, &error) ||
       !target->SetMeta("sweep_identity", identity, &error) ||
@@ -121,16 +155,14 @@ int Merge(const Options& opts) {
                  merged.stale.size());
   }
 
-  std::vector<PointResult> results;
-  if (!CollectStoredResults(*target, hashes, &results, &error)) {
-    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
-    return kExitInternal;
-  }
   std::vector<size_t> all;
   for (size_t i = 0; i < sweep.points.size(); ++i) all.push_back(i);
   double wall_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
-  return WriteReportsAndSummarize(
-      {sweep, all, results, opts.out_dir, store_path, "", merged.merged, wall_s, false});
+  RunSummaryInput summary{sweep, all, results, opts.out_dir, store_path, "", merged.merged,
+                          wall_s, false};
+  summary.refinement = DescribeRefinement(sweep.refinement, sweep.points, results,
+                                          refinement_complete, refinement_pending);
+  return WriteReportsAndSummarize(summary);
 }
 
 }  // namespace

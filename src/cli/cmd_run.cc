@@ -80,6 +80,92 @@ bool RemoveSavedWaveforms(const std::string& out_dir, std::string* error) {
   return true;
 }
 
+// Runs the points `mine` (one round's, or a shard's share of it) that have no
+// stored result for their content, committing each to the store. `hashes`
+// grows to cover every point of the sweep so far. False (printed) on a
+// store or pool failure; an interruption sets `interrupted`.
+bool RunRound(const Options& opts, const CliSeams& seams, const PreparedSweep& sweep,
+              const PointEvaluator& evaluator, const std::vector<size_t>& mine,
+              uint64_t memory_bound, ProgressReporter::Mode mode, RunStore& store,
+              std::vector<std::string>* hashes, size_t* kept, bool* interrupted) {
+  // Which points must run: those without a stored result for the same content.
+  std::string error;
+  *hashes = PointContentHashes(sweep, evaluator);
+  std::vector<StoredPointKey> stored;
+  if (!RekeyStoredResults(store, sweep.points, *hashes, &error) ||
+      !store.ListPoints(&stored, &error)) {
+    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+    return false;
+  }
+  std::vector<bool> keep(sweep.points.size(), false);
+  std::vector<bool> keep_failed(sweep.points.size(), false);
+  for (const auto& s : stored) {
+    if (s.index >= sweep.points.size() || s.content_hash != (*hashes)[s.index] || opts.rerun) {
+      continue;
+    }
+    if (s.status == PointStatus::kOk || opts.no_retry_failed) {
+      keep[s.index] = true;
+      keep_failed[s.index] = s.status != PointStatus::kOk;
+    }
+  }
+  std::vector<size_t> to_run;
+  size_t kept_failed = 0;
+  *kept = 0;
+  for (size_t i : mine) {
+    if (!keep[i]) {
+      to_run.push_back(i);
+    } else {
+      ++*kept;
+      kept_failed += keep_failed[i] ? 1 : 0;
+    }
+  }
+  if (!opts.quiet && *kept > 0) {
+    std::fprintf(stderr, "zvsmap: %zu of %zu points kept from the stored run, %zu to run\n", *kept,
+                 mine.size(), to_run.size());
+  }
+  if (to_run.empty()) return true;
+
+  // Run the rest in worker processes.
+  std::string store_error;
+  WorkerPoolOptions pool_options;
+  pool_options.jobs = opts.jobs;
+  pool_options.timeout_s = opts.timeout_s > 0 ? opts.timeout_s : sweep.spec.simulation.timeout_s;
+  pool_options.recycle_after = opts.recycle;
+  pool_options.memory_bound_bytes = memory_bound;
+  ProgressReporter progress(stderr, mode, mine.size(), *kept, kept_failed);
+  pool_options.on_tick = [&progress] { progress.Tick(); };
+  WorkerSetup setup{[&](size_t index, Simulator& simulator) {
+                      return evaluator.Evaluate(sweep.points[index], simulator);
+                    },
+                    [] { return std::make_unique<NgspiceSimulator>(); }};
+  if (seams.workers) setup = seams.workers(std::move(setup));
+  WorkerPool pool(std::move(setup.job), std::move(setup.factory), pool_options);
+  g_stop = 0;
+  InstallStopHandlers();
+  PoolOutcome outcome = pool.Run(
+      to_run,
+      [&](PointResult&& result) {
+        const Point& point = sweep.points[result.index];
+        if (store_error.empty() &&
+            !store.SavePoint(point, (*hashes)[result.index], result, &store_error)) {
+          g_stop = 1;  // nothing more can be kept: stop
+        }
+        progress.PointDone(result, point.Describe());
+      },
+      &g_stop);
+  progress.Finish();
+  if (!store_error.empty()) {
+    std::fprintf(stderr, "zvsmap: error: %s\n", store_error.c_str());
+    return false;
+  }
+  if (!outcome.ok) {
+    std::fprintf(stderr, "zvsmap: error: %s\n", outcome.error.c_str());
+    return false;
+  }
+  *interrupted = outcome.interrupted;
+  return true;
+}
+
 int Run(const Options& opts, const CliSeams& seams) {
   auto started = std::chrono::steady_clock::now();
   WaveformRequest wave_request;
@@ -169,63 +255,24 @@ int Run(const Options& opts, const CliSeams& seams) {
     return kExitInternal;
   }
 
-  // Which points this process runs: all, or one shard's.
-  std::vector<size_t> mine;
+  // Which points this process runs: all, or one shard's (of each round).
+  std::optional<ShardSpec> shard;
   std::string shard_text;
-  {
-    std::optional<ShardSpec> shard;
-    if (!opts.shard.empty()) {
-      ShardSpec parsed;
-      if (!ParseShard(opts.shard, &parsed, &error)) {
-        std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
-        return kExitBadInput;
-      }
-      shard = parsed;
-    } else if (!ShardFromEnvironment([](const char* name) { return std::getenv(name); },
-                                     opts.shards, &shard, &error)) {
+  if (!opts.shard.empty()) {
+    ShardSpec parsed;
+    if (!ParseShard(opts.shard, &parsed, &error)) {
       std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
       return kExitBadInput;
     }
-    if (shard) {
-      mine = ShardPointIndices(sweep.points.size(), *shard);
-      shard_text = shard->Describe();
-      if (!opts.quiet) {
-        std::fprintf(stderr, "zvsmap: shard %s (from %s): %zu of %zu points\n", shard_text.c_str(),
-                     shard->source.c_str(), mine.size(), sweep.points.size());
-      }
-    } else {
-      for (size_t i = 0; i < sweep.points.size(); ++i) mine.push_back(i);
-    }
-  }
-
-  // Which points must run: those without a stored result for the same content.
-  PointEvaluator evaluator(sweep);
-  std::vector<std::string> hashes = PointContentHashes(sweep, evaluator);
-  std::vector<StoredPointKey> stored;
-  if (!RekeyStoredResults(*store, sweep.points, hashes, &error) ||
-      !store->ListPoints(&stored, &error)) {
+    shard = parsed;
+  } else if (!ShardFromEnvironment([](const char* name) { return std::getenv(name); },
+                                   opts.shards, &shard, &error)) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
-    return kExitInternal;
+    return kExitBadInput;
   }
-  std::vector<bool> keep(sweep.points.size(), false);
-  std::vector<bool> keep_failed(sweep.points.size(), false);
-  for (const auto& s : stored) {
-    if (s.index >= sweep.points.size() || s.content_hash != hashes[s.index] || opts.rerun) continue;
-    if (s.status == PointStatus::kOk || opts.no_retry_failed) {
-      keep[s.index] = true;
-      keep_failed[s.index] = s.status != PointStatus::kOk;
-    }
-  }
-  std::vector<size_t> to_run;
-  size_t kept = 0, kept_failed = 0;
-  for (size_t i : mine) {
-    if (!keep[i]) {
-      to_run.push_back(i);
-    } else {
-      ++kept;
-      kept_failed += keep_failed[i] ? 1 : 0;
-    }
-  }
+  if (shard) shard_text = shard->Describe();
+
+  PointEvaluator evaluator(sweep);
   std::string identity = SweepIdentity(sweep.spec.path, sweep.spec.template_path);
   std::string old_identity = store->GetMeta("sweep_identity");
   if (!opts.quiet && !old_identity.empty() && old_identity != identity) {
@@ -239,62 +286,69 @@ int Run(const Options& opts, const CliSeams& seams) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitInternal;
   }
-  if (!opts.quiet && kept > 0) {
-    std::fprintf(stderr, "zvsmap: %zu of %zu points kept from the stored run, %zu to run\n", kept,
-                 mine.size(), to_run.size());
-  }
 
-  // Run the rest in worker processes.
+  // One round at a time: the grid (a sweep without <refine> has only this
+  // round), then each refinement round from the results of the earlier ones.
+  std::vector<size_t> mine;
+  std::vector<std::string> hashes;
+  std::vector<PointResult> results;
+  size_t kept = 0;
   bool interrupted = false;
-  std::string store_error;
+  bool refinement_complete = !sweep.refinement.active;
+  std::string refinement_pending;
   ProgressReporter::Mode mode = opts.quiet              ? ProgressReporter::Mode::kQuiet
                                 : isatty(STDERR_FILENO) ? ProgressReporter::Mode::kTerminal
                                                         : ProgressReporter::Mode::kPlain;
-  if (!to_run.empty()) {
-    WorkerPoolOptions pool_options;
-    pool_options.jobs = opts.jobs;
-    pool_options.timeout_s = opts.timeout_s > 0 ? opts.timeout_s : sweep.spec.simulation.timeout_s;
-    pool_options.recycle_after = opts.recycle;
-    pool_options.memory_bound_bytes = memory_bound;
-    ProgressReporter progress(stderr, mode, mine.size(), kept, kept_failed);
-    pool_options.on_tick = [&progress] { progress.Tick(); };
-    WorkerSetup setup{[&](size_t index, Simulator& simulator) {
-                        return evaluator.Evaluate(sweep.points[index], simulator);
-                      },
-                      [] { return std::make_unique<NgspiceSimulator>(); }};
-    if (seams.workers) setup = seams.workers(std::move(setup));
-    WorkerPool pool(std::move(setup.job), std::move(setup.factory), pool_options);
-    g_stop = 0;
-    InstallStopHandlers();
-    PoolOutcome outcome = pool.Run(
-        to_run,
-        [&](PointResult&& result) {
-          const Point& point = sweep.points[result.index];
-          if (store_error.empty() &&
-              !store->SavePoint(point, hashes[result.index], result, &store_error)) {
-            g_stop = 1;  // nothing more can be kept: stop
-          }
-          progress.PointDone(result, point.Describe());
-        },
-        &g_stop);
-    progress.Finish();
-    if (!store_error.empty()) {
-      std::fprintf(stderr, "zvsmap: error: %s\n", store_error.c_str());
+  size_t round_begin = 0;
+  for (int round = 0;; ++round) {
+    std::vector<size_t> round_mine;
+    size_t round_size = sweep.points.size() - round_begin;
+    if (shard) {
+      for (size_t k : ShardPointIndices(round_size, *shard)) round_mine.push_back(round_begin + k);
+      if (!opts.quiet) {
+        std::fprintf(stderr, "zvsmap: shard %s (from %s)%s: %zu of %zu points\n",
+                     shard_text.c_str(), shard->source.c_str(),
+                     sweep.refinement.active ? (", round " + std::to_string(round)).c_str() : "",
+                     round_mine.size(), round_size);
+      }
+    } else {
+      for (size_t i = round_begin; i < sweep.points.size(); ++i) round_mine.push_back(i);
+    }
+    mine.insert(mine.end(), round_mine.begin(), round_mine.end());
+    size_t kept_round = 0;
+    if (!RunRound(opts, seams, sweep, evaluator, round_mine, memory_bound, mode, *store, &hashes,
+                  &kept_round, &interrupted)) {
       return kExitInternal;
     }
-    if (!outcome.ok) {
-      std::fprintf(stderr, "zvsmap: error: %s\n", outcome.error.c_str());
+    kept += kept_round;
+    if (!CollectStoredResults(*store, hashes, &results, &error)) {
+      std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
       return kExitInternal;
     }
-    interrupted = outcome.interrupted;
+    if (!sweep.refinement.active || interrupted) break;
+    RoundPlan next;
+    Diagnostic round_error;
+    if (!PlanRound(sweep.spec, sweep.refinement, round + 1, sweep.points, results, &next,
+                   &round_error)) {
+      PrintErrors({round_error});
+      return kExitBadInput;
+    }
+    if (next.waiting) {
+      refinement_pending = next.why_waiting +
+                           (shard ? " (other shards' points: merge the shard stores, copy the "
+                                    "merged run.sqlite into each shard's directory and run the "
+                                    "shards again)"
+                                  : "");
+      break;
+    }
+    if (next.added.empty()) {
+      refinement_complete = true;
+      break;
+    }
+    round_begin = sweep.points.size();
+    for (Point& p : next.added) sweep.points.push_back(std::move(p));
   }
 
-  // Reports come from the store, ordered by point index.
-  std::vector<PointResult> results;
-  if (!CollectStoredResults(*store, hashes, &results, &error)) {
-    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
-    return kExitInternal;
-  }
   // Waveforms of chosen points, before the reports so index.html links them;
   // one forked child owns the ngspice. Its failure leaves the verdict alone.
   if (!opts.waveforms.empty() && !interrupted) {
@@ -308,6 +362,8 @@ int Run(const Options& opts, const CliSeams& seams) {
   double wall_s = std::chrono::duration<double>(std::chrono::steady_clock::now() - started).count();
   RunSummaryInput summary{sweep,      mine, results, opts.out_dir, store_path,
                           shard_text, kept, wall_s,  interrupted};
+  summary.refinement = DescribeRefinement(sweep.refinement, sweep.points, results,
+                                          refinement_complete, refinement_pending);
   return WriteReportsAndSummarize(summary);
 }
 

@@ -1,5 +1,6 @@
 #include "cli/run_summary.h"
 
+#include <algorithm>
 #include <cstdio>
 
 #include "cli/exit_codes.h"
@@ -20,8 +21,8 @@ int WriteReportsAndSummarize(const RunSummaryInput& in) {
   }
   ReportOutcome report;
   std::string error;
-  if (!WriteReports({in.sweep.spec, in.sweep.tmpl, points, results}, in.out_dir, &report,
-                    &error)) {
+  if (!WriteReports({in.sweep.spec, in.sweep.tmpl, points, results, in.refinement}, in.out_dir,
+                    &report, &error)) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitInternal;
   }
@@ -33,6 +34,17 @@ int WriteReportsAndSummarize(const RunSummaryInput& in) {
   std::fprintf(stderr, " (%zu kept from the stored run); wall time %s\n", in.kept,
                FormatDuration(in.wall_s).c_str());
   std::fprintf(stderr, "zvsmap: %s\n", DescribeSolverAidUse(results).c_str());
+  if (in.refinement.used) {
+    const RefinementOutcome& o = in.refinement;
+    std::fprintf(stderr,
+                 "zvsmap: refinement: %zu points of the %zu-point fine grid (%.0f %%), %d of %d "
+                 "rounds after the coarse grid%s%s\n",
+                 in.sweep.points.size(), o.fine_grid_points,
+                 o.fine_grid_points ? 100.0 * in.sweep.points.size() / o.fine_grid_points : 0.0,
+                 std::max(0, o.rounds_run - 1), o.rounds_planned,
+                 o.complete ? ", complete" : "; ",
+                 o.complete ? "" : o.pending.c_str());
+  }
   if (report.requirements_total > 0) {
     std::fprintf(stderr, "zvsmap: requirements: %d of %d held\n",
                  report.requirements_total - report.requirements_failed,

@@ -21,6 +21,8 @@ struct RunSummaryInput {
   size_t kept = 0;              ///< points reused from the store
   double wall_s = 0;
   bool interrupted = false;
+  /// Adaptive refinement: how far it got (RefinementOutcome::used false otherwise).
+  RefinementOutcome refinement = {};
 };
 
 /// Writes every report into out_dir, prints the summary (counts, the largest

@@ -60,7 +60,11 @@ void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
 
   // "\r\n" line ends, as RFC 4180 specifies.
   const char* eol = "\r\n";
+  // A refined sweep (<refine>) says which round added each point.
+  bool refined = false;
+  for (const Point& p : points) refined = refined || p.refine_round >= 0;
   out << "point";
+  if (refined) out << ",refine_round";
   for (const auto& p : params) out << ',' << CsvField(p);
   // Device axes: one column per switch role, holding the device's name.
   std::vector<std::string> roles;
@@ -77,6 +81,7 @@ void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
     const PointResult& r = results[i];
     auto prefix = [&] {
       out << point.index;
+      if (refined) out << ',' << point.refine_round;
       for (const auto& name : params) {
         auto v = point.Get(name);
         out << ',' << (v ? CsvNumber(*v) : "");

@@ -17,7 +17,8 @@ std::string CsvField(const std::string& text);
 std::string CsvNumber(double value);
 
 /// Writes the edge table. `results[i]` must belong to `points[i]`; rows come
-/// in point order, edges in the order measured. Columns: point, every
+/// in point order, edges in the order measured. Columns: point (then
+/// refine_round, the round that added it, when the sweep is refined), every
 /// parameter, cell, edge, zvs_class, every metric, then every comparison's
 /// FlatColumns (each the union over rows, first appearance order), status,
 /// reason, wall_time_s (the only timing column). The only writer that turns

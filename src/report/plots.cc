@@ -103,13 +103,47 @@ struct MapCell {
   double margin = NAN;
   double predicted_full = NAN;
   std::string tip;
+  bool inferred = false;  // no point here (refinement skipped it): the nearest point's class
 };
+
+// A refined (sparse) sweep leaves cells without a point: each takes the class
+// of the nearest measured cell of the map (index units; the first found on a
+// tie), drawn paler and without a margin. Refinement sampled every cell whose
+// corners disagree, so an unsampled cell lies where its neighbours agree.
+void FillFromNearest(size_t nx, size_t ny, std::vector<MapCell>* cells) {
+  std::vector<size_t> measured;
+  for (size_t k = 0; k < cells->size(); ++k) {
+    if ((*cells)[k].measured) measured.push_back(k);
+  }
+  if (measured.empty()) return;
+  for (size_t k = 0; k < cells->size(); ++k) {
+    MapCell& c = (*cells)[k];
+    if (!c.tip.empty()) continue;
+    long i = static_cast<long>(k / ny), j = static_cast<long>(k % ny);
+    size_t best = measured.front();
+    long best_d = -1;
+    for (size_t m : measured) {
+      long di = static_cast<long>(m / ny) - i, dj = static_cast<long>(m % ny) - j;
+      long d = di * di + dj * dj;
+      if (best_d < 0 || d < best_d) {
+        best_d = d;
+        best = m;
+      }
+    }
+    c.inferred = true;
+    c.zvs = (*cells)[best].zvs;
+    c.tip = std::string("no point (not sampled by the refinement): ") + ZvsClassName(c.zvs) +
+            " as the nearest point";
+  }
+  (void)nx;
+}
 
 // The legend: only the classes present, then the boundary lines drawn.
 void MapLegend(SvgCanvas* svg, double x, double y, const std::vector<MapCell>& cells,
                bool hand_boundary) {
   bool present[5] = {false, false, false, false, false};
   for (const MapCell& c : cells) {
+    if (c.inferred) continue;
     if (!c.measured) {
       present[4] = present[4] || !c.tip.empty();
     } else {
@@ -196,13 +230,22 @@ Plot ZvsMapPlot(const ReportBasis& input, const EdgeKey& key, size_t x_dim, size
                   FormatQuantity(cell.margin, margin_unit);
     }
   }
+  bool refined = std::any_of(input.points.begin(), input.points.end(),
+                             [](const Point& p) { return p.refine_round >= 0; });
+  if (refined) FillFromNearest(nx, ny, &cells);
   auto left = [&](size_t i) { return kLeft + i * cw; };
   auto top = [&](size_t j) { return kTop + (ny - 1 - j) * ch; };
   for (size_t i = 0; i < nx; ++i) {
     for (size_t j = 0; j < ny; ++j) {
       const MapCell& c = at(i, j);
-      const char* fill = c.measured ? ClassColour(c.zvs) : c.tip.empty() ? "#ffffff" : kNotRun;
+      const char* fill = c.measured || c.inferred ? ClassColour(c.zvs)
+                         : c.tip.empty()          ? "#ffffff"
+                                                  : kNotRun;
       svg.Rect(left(i), top(j), cw, ch, fill, c.tip.empty() ? "no point" : c.tip);
+      if (c.inferred) {
+        double x = left(i), y = top(j);
+        svg.Polygon({{x, y}, {x + cw, y}, {x + cw, y + ch}, {x, y + ch}}, "#ffffff", 0.55);
+      }
       if (c.measured) {
         svg.Text(left(i) + cw / 2, top(j) + ch / 2 + 4, FormatQuantity(c.margin, margin_unit),
                  "middle", 10);
@@ -403,6 +446,28 @@ Plot MetricCurvePlot(const ReportBasis& input, const EdgeKey& key, size_t dim,
   return plot;
 }
 
+namespace {
+
+// A refined sweep maps only the slices of the held dimensions that hold
+// coarse points (round 0): between them the refinement sampled only the
+// cells around the boundary. Every slice of an unrefined sweep counts.
+bool CoarseSlice(const ReportBasis& input, const std::vector<size_t>& held,
+                 const std::vector<int>& at) {
+  bool refined = false;
+  for (size_t i = 0; i < input.points.size() && i < input.grid.coords.size(); ++i) {
+    const Point& p = input.points[i];
+    if (p.refine_round < 0) continue;
+    refined = true;
+    if (p.refine_round != 0) continue;
+    bool in_slice = true;
+    for (size_t d : held) in_slice = in_slice && input.grid.coords[i][d] == at[d];
+    if (in_slice) return true;
+  }
+  return !refined;
+}
+
+}  // namespace
+
 std::vector<Plot> MakePlots(const ReportBasis& input) {
   std::vector<Plot> plots;
   const Grid& grid = input.grid;
@@ -428,8 +493,11 @@ std::vector<Plot> MakePlots(const ReportBasis& input) {
   constexpr int kMaxMapsPerEdge = 16;
   for (const EdgeKey& key : edges) {
     std::vector<int> at(grid.dims.size(), 0);
-    for (int n = 0; n < kMaxMapsPerEdge; ++n) {
-      plots.push_back(ZvsMapPlot(input, key, swept[1], swept[0], at));
+    for (int n = 0; n < kMaxMapsPerEdge;) {
+      if (CoarseSlice(input, further, at)) {
+        plots.push_back(ZvsMapPlot(input, key, swept[1], swept[0], at));
+        ++n;
+      }
       size_t k = 0;
       for (; k < further.size(); ++k) {
         size_t d = further[k];

@@ -8,6 +8,7 @@
 #include "report/zvs_boundary.h"
 #include "result/point_result.h"
 #include "sweep/point.h"
+#include "sweep/refine_spec.h"
 #include "sweep/sweep_spec.h"
 
 namespace zvsmap {
@@ -20,6 +21,9 @@ struct ReportInput {
   const Template& tmpl;
   const std::vector<Point>& points;
   const std::vector<PointResult>& results;
+  /// How far adaptive refinement got (summary.xml's <refinement>); unused
+  /// (`used` false) for a sweep without <refine>.
+  RefinementOutcome refinement = {};
 };
 
 /// The input with what every report derives from it, derived once (by

@@ -156,6 +156,31 @@ void AddSolverAids(pugi::xml_node root, const std::string& setting,
   aids.append_attribute("aided") = aided;
 }
 
+// <refinement>: adaptive refinement was used, how far it got, per axis its
+// resolution and halvings, per round the points it added.
+void AddRefinement(pugi::xml_node root, const ReportBasis& input) {
+  const RefinementOutcome& o = input.refinement;
+  if (!o.used) return;
+  pugi::xml_node node = root.append_child("refinement");
+  node.append_attribute("rounds-planned") = o.rounds_planned;
+  node.append_attribute("rounds-run") = o.rounds_run;
+  node.append_attribute("complete") = o.complete;
+  node.append_attribute("points") = static_cast<unsigned long long>(input.points.size());
+  node.append_attribute("fine-grid-points") = static_cast<unsigned long long>(o.fine_grid_points);
+  if (!o.pending.empty()) node.append_attribute("pending") = o.pending.c_str();
+  for (const RefineSpec& r : input.spec.refine) {
+    pugi::xml_node a = node.append_child("axis");
+    a.append_attribute("param") = r.param.c_str();
+    a.append_attribute("resolution") = XmlNumber(r.resolution).c_str();
+    a.append_attribute("halvings") = r.levels;
+  }
+  for (size_t k = 0; k < o.points_per_round.size(); ++k) {
+    pugi::xml_node round = node.append_child("round");
+    round.append_attribute("index") = static_cast<unsigned long long>(k);
+    round.append_attribute("points") = static_cast<unsigned long long>(o.points_per_round[k]);
+  }
+}
+
 }  // namespace
 
 void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerdict>& verdicts,
@@ -198,6 +223,8 @@ void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerd
       d.append_child("moves-with").append_attribute("param") = also.c_str();
     }
   }
+
+  AddRefinement(root, input);
 
   const MarginSource& margin = input.margin;
   pugi::xml_node m = root.append_child("margin");

@@ -160,46 +160,59 @@ std::vector<Boundary> FindBoundaries(const Grid& grid, const std::vector<PointRe
     return e && e->zvs != ZvsClass::kUnknown ? e : nullptr;
   };
 
-  std::vector<Boundary> out;
-  for (const auto& [coords, i] : at_coords) {
-    for (size_t d = 0; d < grid.dims.size(); ++d) {
-      if (grid.dims[d].Categorical()) continue;  // no boundary between two devices
-      const std::vector<double>& values = grid.dims[d].values;
-      if (static_cast<size_t>(coords[d]) + 1 >= values.size()) continue;
-      std::vector<int> next = coords;
-      ++next[d];
-      auto found = at_coords.find(next);
-      if (found == at_coords.end()) continue;
-      const EdgeMeasurement* a = measured(i);
-      const EdgeMeasurement* b = measured(found->second);
-      if (!a || !b) continue;
-      bool full_a = a->zvs == ZvsClass::kFull, full_b = b->zvs == ZvsClass::kFull;
-      if (full_a == full_b) continue;
-      Boundary boundary;
-      boundary.dim = d;
-      boundary.lower = values[coords[d]];
-      boundary.upper = values[next[d]];
-      boundary.zvs_above = full_b;
-      boundary.at = coords;
-      boundary.at[d] = -1;
-      double ma = MarginOf(*a, margin), mb = MarginOf(*b, margin);
-      // The margin's zero between the two points, by linear interpolation;
-      // when the margins do not bracket zero (a criterion that disagrees with
-      // the margin, or a margin not measured) the midpoint stands in.
-      double t = 0.5;
-      if (std::isfinite(ma) && std::isfinite(mb) && ma != mb && (ma >= 0) != (mb >= 0)) {
-        t = ma / (ma - mb);
-        boundary.interpolated = true;
+  // Neighbours along a dimension are the next point on the same line (the
+  // other positions equal): on a full grid the next value, on a refined
+  // (sparse) set the nearest sampled one, so the boundary is located at the
+  // finest spacing each line has.
+  std::vector<std::pair<std::vector<int>, Boundary>> found;  // (lower point's coords, boundary)
+  for (size_t d = 0; d < grid.dims.size(); ++d) {
+    if (grid.dims[d].Categorical()) continue;  // no boundary between two devices
+    const std::vector<double>& values = grid.dims[d].values;
+    std::map<std::vector<int>, std::vector<std::pair<int, size_t>>> lines;
+    for (const auto& [coords, i] : at_coords) {
+      std::vector<int> line = coords;
+      line[d] = -1;
+      lines[line].emplace_back(coords[d], i);  // ascending: the map is ordered
+    }
+    for (const auto& [line, members] : lines) {
+      for (size_t k = 0; k + 1 < members.size(); ++k) {
+        const EdgeMeasurement* a = measured(members[k].second);
+        const EdgeMeasurement* b = measured(members[k + 1].second);
+        if (!a || !b) continue;
+        bool full_a = a->zvs == ZvsClass::kFull, full_b = b->zvs == ZvsClass::kFull;
+        if (full_a == full_b) continue;
+        int lo = members[k].first, hi = members[k + 1].first;
+        Boundary boundary;
+        boundary.dim = d;
+        boundary.lower = values[lo];
+        boundary.upper = values[hi];
+        boundary.zvs_above = full_b;
+        boundary.at = line;
+        double ma = MarginOf(*a, margin), mb = MarginOf(*b, margin);
+        // The margin's zero between the two points, by linear interpolation;
+        // when the margins do not bracket zero (a criterion that disagrees with
+        // the margin, or a margin not measured) the midpoint stands in.
+        double t = 0.5;
+        if (std::isfinite(ma) && std::isfinite(mb) && ma != mb && (ma >= 0) != (mb >= 0)) {
+          t = ma / (ma - mb);
+          boundary.interpolated = true;
+        }
+        boundary.value = boundary.lower + t * (boundary.upper - boundary.lower);
+        boundary.position = lo + t * (hi - lo);
+        std::vector<int> lower = line;
+        lower[d] = lo;
+        found.emplace_back(std::move(lower), std::move(boundary));
       }
-      boundary.value = boundary.lower + t * (boundary.upper - boundary.lower);
-      boundary.position = coords[d] + t;
-      out.push_back(std::move(boundary));
     }
   }
-  // Order: by dimension, then by the other positions (map order already sorts
-  // by coordinates), so the output is stable.
-  std::stable_sort(out.begin(), out.end(),
-                   [](const Boundary& x, const Boundary& y) { return x.dim < y.dim; });
+  // Order: by dimension, then by the lower point's positions, so the output
+  // is stable.
+  std::sort(found.begin(), found.end(), [](const auto& x, const auto& y) {
+    if (x.second.dim != y.second.dim) return x.second.dim < y.second.dim;
+    return x.first < y.first;
+  });
+  std::vector<Boundary> out;
+  for (auto& f : found) out.push_back(std::move(f.second));
   return out;
 }
 

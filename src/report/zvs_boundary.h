@@ -100,7 +100,7 @@ double MarginOf(const EdgeMeasurement& m, const MarginSource& source);
 struct Boundary {
   size_t dim = 0;
   double value = 0;  ///< the located boundary
-  double lower = 0;  ///< the neighbouring axis values it lies between
+  double lower = 0;  ///< the neighbouring sampled axis values it lies between
   double upper = 0;
   bool interpolated = false;  ///< true: zero of the margin, interpolated linearly;
                               ///< false: the margins do not change sign, midpoint taken
@@ -111,7 +111,10 @@ struct Boundary {
 
 /// Every class change of `key` (full versus not full) between neighbouring
 /// points that both ran (status ok) and both measured the edge, along the
-/// numeric dimensions (not between two devices of a device axis).
+/// numeric dimensions (not between two devices of a device axis). Neighbours
+/// are consecutive points of a line (the other positions equal), so on a
+/// sparse set (adaptive refinement) the boundary is located between the
+/// nearest sampled points; on a full grid they are the next values.
 std::vector<Boundary> FindBoundaries(const Grid& grid, const std::vector<PointResult>& results,
                                      const EdgeKey& key, const MarginSource& margin);
 

@@ -52,7 +52,9 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     errors->insert(errors->end(), predictions.begin(), predictions.end());
     return false;
   }
-  return CheckSweepUpFront(out, errors);
+  if (!CheckSweepUpFront(out, errors)) return false;
+  out->refinement = StartRefinement(&out->spec, &out->points);
+  return true;
 }
 
 }  // namespace zvsmap

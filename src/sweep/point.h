@@ -29,6 +29,9 @@ struct Point {
   /// group of the SweepSpec (device axes included), as ExpandSweep made it.
   /// Empty for a point built by hand (reports then place it by value).
   std::vector<int> grid = {};
+  /// Adaptive refinement (<refine>): the round that added the point (0 = the
+  /// coarse grid); -1 when the sweep is not refined.
+  int refine_round = -1;
 
   /// The value of `name` (compared case-insensitively, as SPICE does), if this
   /// point sets it.

@@ -4,6 +4,44 @@
 
 namespace zvsmap {
 
+bool ExpandPointAt(const SweepSpec& spec, const std::vector<size_t>& digit, size_t index,
+                   Point* point, Diagnostic* error) {
+  Point p;
+  p.index = index;
+  p.grid.assign(digit.begin(), digit.end());
+  for (const FixedValue& f : spec.fixed) p.values.push_back({f.param, f.value});
+  for (size_t g = 0; g < spec.groups.size(); ++g) {
+    for (const AxisSpec& a : spec.groups[g].axes) {
+      if (!a.device_roles.empty()) {
+        // A device axis sets no parameter: it picks each role's switch model.
+        for (const auto& role : a.device_roles)
+          p.devices.emplace_back(role, a.device_names[digit[g]]);
+        continue;
+      }
+      p.values.push_back({a.param, a.values[digit[g]]});
+    }
+  }
+  for (const DerivedValue& d : spec.derived) {
+    // Every value of the point so far is visible, under the name the sweep
+    // file gives it (muParser names are case-sensitive).
+    Variables vars;
+    for (const ParamValue& v : p.values) vars[v.name] = v.value;
+    double value = 0;
+    std::string message;
+    int column = 0;
+    if (!EvaluateExpression(d.expression, vars, &value, &message, &column)) {
+      error->where = d.where;
+      error->message = "cannot evaluate '" + d.expression + "' for '" + d.param + "' at point " +
+                       std::to_string(index) + " (" + p.Describe() + "): " + message;
+      error->source_line.clear();
+      return false;
+    }
+    p.values.push_back({d.param, value});
+  }
+  *point = std::move(p);
+  return true;
+}
+
 bool ExpandSweep(const SweepSpec& spec, std::vector<Point>* points, Diagnostic* error) {
   points->clear();
   // Check the size before allocating anything: a grid of a billion points
@@ -29,37 +67,9 @@ bool ExpandSweep(const SweepSpec& spec, std::vector<Point>* points, Diagnostic* 
       rest /= size;
     }
     Point p;
-    p.index = index;
-    p.grid.assign(digit.begin(), digit.end());
-    for (const FixedValue& f : spec.fixed) p.values.push_back({f.param, f.value});
-    for (size_t g = 0; g < spec.groups.size(); ++g) {
-      for (const AxisSpec& a : spec.groups[g].axes) {
-        if (!a.device_roles.empty()) {
-          // A device axis sets no parameter: it picks each role's switch model.
-          for (const auto& role : a.device_roles)
-            p.devices.emplace_back(role, a.device_names[digit[g]]);
-          continue;
-        }
-        p.values.push_back({a.param, a.values[digit[g]]});
-      }
-    }
-    for (const DerivedValue& d : spec.derived) {
-      // Every value of the point so far is visible, under the name the sweep
-      // file gives it (muParser names are case-sensitive).
-      Variables vars;
-      for (const ParamValue& v : p.values) vars[v.name] = v.value;
-      double value = 0;
-      std::string message;
-      int column = 0;
-      if (!EvaluateExpression(d.expression, vars, &value, &message, &column)) {
-        error->where = d.where;
-        error->message = "cannot evaluate '" + d.expression + "' for '" + d.param + "' at point " +
-                         std::to_string(index) + " (" + p.Describe() + "): " + message;
-        error->source_line.clear();
-        points->clear();
-        return false;
-      }
-      p.values.push_back({d.param, value});
+    if (!ExpandPointAt(spec, digit, index, &p, error)) {
+      points->clear();
+      return false;
     }
     points->push_back(std::move(p));
   }

@@ -1,6 +1,7 @@
 // Expansion of a SweepSpec into its operating points.
 #pragma once
 
+#include <cstddef>
 #include <vector>
 
 #include "core/diagnostic.h"
@@ -15,5 +16,17 @@ namespace zvsmap {
 /// Fails (with the derived value's location) when an expression cannot be
 /// evaluated, or when the grid exceeds `spec.max_points`.
 bool ExpandSweep(const SweepSpec& spec, std::vector<Point>* points, Diagnostic* error);
+
+}  // namespace zvsmap
+
+namespace zvsmap {
+
+/// One point of the grid: the value at position `digit[g]` of every group g
+/// (fixed values first, derived values evaluated last), with `index` as its
+/// index. Fails (with the derived value's location) when an expression cannot
+/// be evaluated. ExpandSweep calls it for every position; adaptive refinement
+/// for the positions it adds.
+bool ExpandPointAt(const SweepSpec& spec, const std::vector<size_t>& digit, size_t index,
+                   Point* point, Diagnostic* error);
 
 }  // namespace zvsmap

@@ -15,6 +15,7 @@
 #include "sweep/axis_values.h"
 #include "sweep/device_parser.h"
 #include "sweep/prediction_parser.h"
+#include "sweep/refine_parser.h"
 #include "sweep/requirement_parser.h"
 
 namespace zvsmap {
@@ -606,7 +607,8 @@ bool Parser::Run(bool check_template_exists) {
 
   static const std::vector<std::string> kElements = {"template", "set",        "axis",  "lockstep",
                                                      "derive",   "simulation", "zvs",   "limits",
-                                                     "require",  "predict",    "device"};
+                                                     "require",  "predict",    "device",
+                                                     "refine"};
   for (pugi::xml_node node : root.children()) {
     if (node.type() != pugi::node_element) {
       return Fail(WhereText(node), "unexpected text in <sweep>");
@@ -662,6 +664,17 @@ bool Parser::Run(bool check_template_exists) {
       };
       ok = ParseDevice(node, path_, spec_->devices, where, fail, &d);
       if (ok) spec_->devices.push_back(std::move(d));
+    } else if (name == "refine") {
+      RefineSpec r;
+      if (node.attribute("resolution") &&
+          !Spelling(node, "resolution", node.attribute("resolution").value())) {
+        return false;
+      }
+      auto fail = [&](const char* attribute, const std::string& message) {
+        return attribute ? FailAttr(node, attribute, message) : Fail(node, message);
+      };
+      ok = ParseRefine(node, Where(node), *spec_, fail, &r);
+      if (ok) spec_->refine.push_back(std::move(r));
     } else if (name == "predict") {
       PredictionSpec p;
       std::string tolerance = Trim(node.attribute("tolerance").value());
@@ -681,6 +694,7 @@ bool Parser::Run(bool check_template_exists) {
   }
   if (!CheckRequirementNames(*spec_, error_)) return Fail(error_->where, error_->message);
   if (!CheckDeviceAxes()) return false;
+  if (!CheckRefineAxes(spec_, error_)) return Fail(error_->where, error_->message);
   if (check_template_exists) {
     std::error_code ec;
     if (!std::filesystem::is_regular_file(spec_->template_path, ec)) {

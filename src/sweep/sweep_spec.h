@@ -9,6 +9,7 @@
 #include "core/diagnostic.h"
 #include "sweep/device_spec.h"
 #include "sweep/prediction_spec.h"
+#include "sweep/refine_spec.h"
 #include "sweep/requirement_spec.h"
 
 namespace zvsmap {
@@ -103,6 +104,9 @@ struct SweepSpec {
   /// Not fatal, found while reading: numbers with unit letters SPICE ignores
   /// ("10uH"), each at its attribute with a caret. Printed before a run.
   std::vector<Diagnostic> warnings;
+  /// <refine> elements, in file order (checked against the axes; empty: no
+  /// adaptive refinement, the grid is run as it is).
+  std::vector<RefineSpec> refine = {};
 
   /// Number of points of the crossed grid (product of group sizes).
   size_t GridSize() const;
