@@ -265,8 +265,8 @@ int Run(const Options& opts, const CliSeams& seams) {
       return kExitBadInput;
     }
     shard = parsed;
-  } else if (!ShardFromEnvironment([](const char* name) { return std::getenv(name); },
-                                   opts.shards, &shard, &error)) {
+  } else if (!ShardFromEnvironment([](const char* name) { return std::getenv(name); }, opts.shards,
+                                   &shard, &error)) {
     std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
     return kExitBadInput;
   }
@@ -334,11 +334,11 @@ int Run(const Options& opts, const CliSeams& seams) {
       return kExitBadInput;
     }
     if (next.waiting) {
-      refinement_pending = next.why_waiting +
-                           (shard ? " (other shards' points: merge the shard stores, copy the "
-                                    "merged run.sqlite into each shard's directory and run the "
-                                    "shards again)"
-                                  : "");
+      refinement_pending =
+          next.why_waiting + (shard ? " (other shards' points: merge the shard stores, copy the "
+                                      "merged run.sqlite into each shard's directory and run the "
+                                      "shards again)"
+                                    : "");
       break;
     }
     if (next.added.empty()) {

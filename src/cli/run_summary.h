@@ -17,8 +17,8 @@ struct RunSummaryInput {
   const std::vector<PointResult>& results;  ///< index for index with sweep.points
   std::string out_dir;
   std::string store_path;
-  std::string shard;            ///< "K/N" when the run was one shard, else ""
-  size_t kept = 0;              ///< points reused from the store
+  std::string shard;  ///< "K/N" when the run was one shard, else ""
+  size_t kept = 0;    ///< points reused from the store
   double wall_s = 0;
   bool interrupted = false;
   /// Adaptive refinement: how far it got (RefinementOutcome::used false otherwise).

@@ -132,8 +132,7 @@ RefinementPlan StartRefinement(SweepSpec* spec, std::vector<Point>* points) {
     int parts = 1 << r.levels;
     for (size_t k = 0; k + 1 < values.size(); ++k) {
       for (int j = 0; j < parts; ++j) {
-        fine.push_back(j == 0 ? values[k]
-                              : values[k] + (values[k + 1] - values[k]) * j / parts);
+        fine.push_back(j == 0 ? values[k] : values[k] + (values[k + 1] - values[k]) * j / parts);
       }
     }
     fine.push_back(values.back());

@@ -21,10 +21,10 @@ namespace zvsmap {
 /// position on it: a refined axis's coarse value k sits at k * 2^levels.
 struct RefinementPlan {
   bool active = false;
-  std::vector<int> levels;     ///< per axis group: halvings of its coarse spacing (0: none)
-  std::vector<bool> spanning;  ///< per group: cells extend along it (numeric, > 1 value)
-  int rounds = 0;              ///< the largest `levels`: rounds after round 0
-  size_t fine_grid_points = 0; ///< points of the whole fine lattice
+  std::vector<int> levels;      ///< per axis group: halvings of its coarse spacing (0: none)
+  std::vector<bool> spanning;   ///< per group: cells extend along it (numeric, > 1 value)
+  int rounds = 0;               ///< the largest `levels`: rounds after round 0
+  size_t fine_grid_points = 0;  ///< points of the whole fine lattice
 };
 
 /// Turns an expanded sweep into round 0 of its refinement when `spec` has
@@ -49,8 +49,8 @@ struct RoundPlan {
 /// yet, in grid order. Corners disagree when, for some measured edge, the ZVS
 /// class (full or not) or the sign of the criterion's margin
 /// (v_residual_limit_v - v_turn_on_v) differs between two corners that ran;
-/// corners that failed are left out of the comparison. A corner not run yet makes the round wait (`waiting`). Fails
-/// (at the sweep's <limits>) when the round would bring the sweep beyond
+/// corners that failed are left out of the comparison. A corner not run yet makes the round wait
+/// (`waiting`). Fails (at the sweep's <limits>) when the round would bring the sweep beyond
 /// `spec.max_points`, or a derived value cannot be evaluated.
 bool PlanRound(const SweepSpec& spec, const RefinementPlan& plan, int round,
                const std::vector<Point>& points, const std::vector<PointResult>& results,

@@ -112,8 +112,8 @@ bool CheckRefineAxes(SweepSpec* spec, Diagnostic* error) {
     }
     if (levels == 0) {
       return failed(r, "resolution " + FormatEngineering(r.resolution) + " of axis '" + r.param +
-                           "' is not finer than its spacing " +
-                           FormatEngineering(r.coarse_step) + ": nothing to refine");
+                           "' is not finer than its spacing " + FormatEngineering(r.coarse_step) +
+                           ": nothing to refine");
     }
     if (levels > kMaxLevels) {
       return failed(r, "resolution " + FormatEngineering(r.resolution) + " of axis '" + r.param +

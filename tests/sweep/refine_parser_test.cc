@@ -62,7 +62,8 @@ TEST_F(RefineParserTest, BadElementsNameTheirLine) {
             "9: bad number 'abc' in attribute 'resolution'");
   EXPECT_EQ(Error(Sweep("  <refine param=\"Iout\"/>\n")),
             "9: missing attribute 'resolution' on <refine>");
-  EXPECT_EQ(Error(Sweep("  <refine resolution=\"1\"/>\n")), "9: missing attribute 'param' on <refine>");
+  EXPECT_EQ(Error(Sweep("  <refine resolution=\"1\"/>\n")),
+            "9: missing attribute 'param' on <refine>");
   EXPECT_EQ(Error(Sweep("  <refine param=\"Iout\" resolution=\"1\" step=\"1\"/>\n")),
             "9: unknown attribute 'step' on <refine> (it takes 'param' and 'resolution')");
   EXPECT_EQ(Error(Sweep("  <refine param=\"Iout\" resolution=\"1\"/>\n"
