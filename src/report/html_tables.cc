@@ -203,7 +203,10 @@ std::string WindowTable(const ReportBasis& input, const EdgeKey& key) {
   row("window end: longest before ring-back", w.end);
   h += kTableEnd;
   Range start = RangeOf(input, key, w.start), end = RangeOf(input, key, w.end);
-  if (start.n > 0 && end.n > 0) {
+  if (input.envelope.Find(key)) {
+    h += "<p>Across the envelope: see <a href=\"#recommended-dead-time\">Recommended dead "
+         "time</a>.</p>\n";
+  } else if (start.n > 0 && end.n > 0) {
     bool fits = start.hi <= end.lo;
     h += "<p>One dead time serves every point " +
          std::string(fits ? "between " + FormatQuantity(start.hi, "s") + " and " +
@@ -457,11 +460,10 @@ std::string HtmlSettings(const ReportInput& input) {
   return h + kTableEnd;
 }
 
-std::string HtmlRecommendedDeadTime(const ReportInput& input) {
-  (void)input;
-  return "<h2 id=\"recommended-dead-time\">Recommended dead time</h2>\n"
-         "<p class=\"slot\">Not computed by this version: the window per edge is above; a "
-         "recommended dead time or schedule over the envelope goes here.</p>\n";
+std::string HtmlNumberCell(double value, const std::string& unit) { return Num(value, unit); }
+
+std::string HtmlPointCells(const ReportInput& input, const Grid& grid, size_t i) {
+  return PointCells(input, grid, i);
 }
 
 }  // namespace zvsmap

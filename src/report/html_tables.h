@@ -41,8 +41,19 @@ std::string HtmlSolverAids(const ReportInput& input);
 /// settings (id "settings").
 std::string HtmlSettings(const ReportInput& input);
 
-/// The slot for the recommended dead time or schedule (id
-/// "recommended-dead-time"): filled by the dead-time analysis when it exists.
-std::string HtmlRecommendedDeadTime(const ReportInput& input);
+/// The recommended dead time per edge (id "recommended-dead-time", one
+/// paragraph per edge with id "recommended-CELL-EDGE"): the value, its timing
+/// margins and the points binding each side; when no single value serves,
+/// the points that empty the intersection and the schedule table; the points
+/// where ZVS is impossible. A sentence when the results carry no probe window.
+/// (html_dead_time.cc)
+std::string HtmlRecommendedDeadTime(const ReportBasis& input);
+
+/// A number cell as every table writes it: text with units, the raw value
+/// in data-value ("n/a" and an empty data-value for NaN).
+std::string HtmlNumberCell(double value, const std::string& unit);
+
+/// The point-number and operating-point cells of point `i`'s row.
+std::string HtmlPointCells(const ReportInput& input, const Grid& grid, size_t i);
 
 }  // namespace zvsmap

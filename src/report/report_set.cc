@@ -8,6 +8,7 @@
 #include "core/atomic_file.h"
 #include "report/csv_writer.h"
 #include "report/deadtime_chart.h"
+#include "report/deadtime_schedule.h"
 #include "report/html_index.h"
 #include "report/junit_xml.h"
 #include "report/plots.h"
@@ -59,7 +60,8 @@ ReportBasis::ReportBasis(const ReportInput& input)
       grid(BuildGrid(spec, points)),
       edges(MeasuredEdges(results)),
       margin(ChooseMargin(results)),
-      window(FindWindowColumns(results)) {}
+      window(FindWindowColumns(results)),
+      envelope(ComputeDeadTimeEnvelope(grid, results, edges)) {}
 
 bool WriteReports(const ReportInput& raw_input, const std::string& dir, ReportOutcome* outcome,
                   std::string* error) {
@@ -88,6 +90,12 @@ bool WriteReports(const ReportInput& raw_input, const std::string& dir, ReportOu
   }
 
   std::vector<std::string> links = {"edges.csv", "summary.xml", "junit.xml"};
+  if (input.envelope.available) {
+    std::ostringstream schedule;
+    WriteDeadTimeScheduleCsv(schedule, input);
+    if (!WriteText(dir, "deadtime_schedule.csv", schedule.str(), outcome, error)) return false;
+    links.push_back("deadtime_schedule.csv");
+  }
   for (const Plot& p : plots) links.push_back(p.file);
   // Waveforms saved earlier (`zvsmap waveforms`, `run --waveforms`): their
   // plots shown, the raw files linked.

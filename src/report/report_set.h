@@ -5,6 +5,7 @@
 #include <vector>
 
 #include "netlist/template.h"
+#include "report/dead_time_envelope.h"
 #include "report/zvs_boundary.h"
 #include "result/point_result.h"
 #include "sweep/point.h"
@@ -28,16 +29,17 @@ struct ReportInput {
 
 /// The input with what every report derives from it, derived once (by
 /// WriteReports) and handed to each writer: the grid, the measured edges, the
-/// margin and the dead-time window columns.
+/// margin, the dead-time window columns and the envelope's dead time.
 struct ReportBasis : ReportInput {
-  /// Derives grid, edges, margin and window from `input` (whose sweep, points
-  /// and results must outlive the basis).
+  /// Derives grid, edges, margin, window and envelope from `input` (whose
+  /// sweep, points and results must outlive the basis).
   explicit ReportBasis(const ReportInput& input);
 
   Grid grid;                   ///< BuildGrid(spec, points)
   std::vector<EdgeKey> edges;  ///< MeasuredEdges(results)
   MarginSource margin;         ///< ChooseMargin(results)
   WindowColumns window;        ///< FindWindowColumns(results)
+  DeadTimeEnvelope envelope;   ///< ComputeDeadTimeEnvelope(grid, results, edges)
 };
 
 /// What writing the reports found out, for the verdict and the exit status.
@@ -48,7 +50,8 @@ struct ReportOutcome {
 };
 
 /// Writes every report into `dir` (which exists): edges.csv, summary.xml,
-/// junit.xml, the SVG plots and index.html; evaluates the sweep's requirements
+/// junit.xml, deadtime_schedule.csv (when the results carry the probe's
+/// window), the SVG plots and index.html; evaluates the sweep's requirements
 /// and fills `outcome` (files written, requirements total and failed). Returns
 /// false with `error` when a file cannot be written.
 bool WriteReports(const ReportInput& input, const std::string& dir, ReportOutcome* outcome,

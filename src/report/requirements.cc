@@ -44,6 +44,27 @@ int Covers(const RequirementSpec& r, const Point& point, std::string* message) {
   return value != 0 ? 1 : 0;
 }
 
+// When the probe found ZVS impossible at this point: why, with its valley.
+std::string ImpossibleNote(const EdgeMeasurement& e, const std::string& start_column) {
+  if (start_column != kProbeTMinColumn || !std::isnan(e.Get(kProbeTMinColumn))) return "";
+  return " (ZVS impossible at any dead time: lowest v_ds " + Num(e.Get(kProbeValleyVoltageColumn)) +
+         "V at " + Num(e.Get(kProbeValleyTimeColumn)) + "s)";
+}
+
+// dead-time=T within-window="true": T inside [probe_t_min_s, probe_t_max_s].
+std::string CheckGivenDeadTime(const RequirementSpec& r, const EdgeMeasurement& e,
+                               const std::string& label) {
+  double t = r.dead_time_s;
+  double start = e.Get(kProbeTMinColumn), end = e.Get(kProbeTMaxColumn);
+  if (!std::isnan(start) && !std::isnan(end) && t >= start && t <= end) return "";
+  std::string out = label + " dead time " + Num(t) + "s outside [" + kProbeTMinColumn + "=" +
+                    Num(start) + ", " + kProbeTMaxColumn + "=" + Num(end) + "]";
+  if (!std::isnan(end) && t > end && e.Get(kProbeMaxAtBoundColumn) > 0.5) {
+    out += " (beyond where the probe stopped; no ring-back seen before it)";
+  }
+  return out + ImpossibleNote(e, kProbeTMinColumn);
+}
+
 // Checks one measured edge; returns "" when it holds, else what is wrong.
 std::string Check(const RequirementSpec& r, const EdgeMeasurement& e, const MarginSource& margin,
                   const WindowColumns& window) {
@@ -75,8 +96,10 @@ std::string Check(const RequirementSpec& r, const EdgeMeasurement& e, const Marg
                 (std::isnan(end) || dead <= end);
       if (ok) return "";
       return label + " t_dead_s=" + Num(dead) + " outside [" + window.start + "=" + Num(start) +
-             ", " + window.end + "=" + Num(end) + "]";
+             ", " + window.end + "=" + Num(end) + "]" + ImpossibleNote(e, window.start);
     }
+    case RequirementSpec::Kind::kGivenDeadTime:
+      return CheckGivenDeadTime(r, e, label);
   }
   return "";
 }
@@ -96,8 +119,14 @@ std::vector<RequirementVerdict> EvaluateRequirements(const ReportBasis& input) {
     std::string error;
     if (r.kind == RequirementSpec::Kind::kDeadTimeWindow && !window.found()) {
       error =
-          "the results have no dead-time window columns (looked for t_dead_min*/t_clamp*/"
-          "t_zvs* and t_dead_max*/t_ringback*/t_ring_back*), so the window cannot be checked";
+          "the results have no dead-time window columns (looked for probe_t_min*/t_dead_min*/"
+          "t_clamp*/"
+          "t_zvs* and probe_t_max*/t_dead_max*/t_ringback*/t_ring_back*), so the window cannot "
+          "be checked";
+    }
+    if (r.kind == RequirementSpec::Kind::kGivenDeadTime && !input.envelope.available) {
+      error = std::string("the results have no probe window (") + kProbeTMinColumn + ", " +
+              kProbeTMaxColumn + "), so a given dead time cannot be judged against the window";
     }
     for (size_t i = 0; error.empty() && i < input.points.size() && i < input.results.size(); ++i) {
       const Point& point = input.points[i];

@@ -43,8 +43,83 @@ void AddRange(pugi::xml_node edge_node, const char* quantity, const std::string&
   }
 }
 
+// A point number as the CSV and the failed-points list give it.
+unsigned long long PointNumber(const ReportInput& input, size_t i) {
+  return static_cast<unsigned long long>(i < input.points.size() ? input.points[i].index : i);
+}
+
+void AddIntersection(pugi::xml_node parent, const ReportInput& input,
+                     const WindowIntersection& w) {
+  if (w.windows == 0) return;
+  pugi::xml_node n = parent.append_child("intersection");
+  n.append_attribute("earliest") = XmlNumber(w.lo).c_str();
+  n.append_attribute("latest") = XmlNumber(w.hi).c_str();
+  n.append_attribute("early-point") = PointNumber(input, w.lo_point);
+  n.append_attribute("late-point") = PointNumber(input, w.hi_point);
+  n.append_attribute("late-end") = w.hi_at_bound ? "probe-bound" : "ring-back";
+  if (!w.Holds()) return;
+  pugi::xml_node r = parent.append_child("recommended");
+  r.append_attribute("value") = XmlNumber(w.recommended).c_str();
+  r.append_attribute("choice") = DeadTimeChoiceName(w.choice);
+  r.append_attribute("margin-early") = XmlNumber(w.margin_early).c_str();
+  r.append_attribute("margin-late") = XmlNumber(w.margin_late).c_str();
+}
+
+// <dead-time-envelope>: the intersection of the probe windows over every
+// point, the recommendation or the points that empty it, the impossible
+// points and the schedule.
+void AddEnvelope(pugi::xml_node edge_node, const ReportInput& input, const Grid& grid,
+                 const EdgeEnvelope& env) {
+  pugi::xml_node n = edge_node.append_child("dead-time-envelope");
+  n.append_attribute("measured") = env.measured;
+  n.append_attribute("windows") = env.all.windows;
+  n.append_attribute("impossible") = static_cast<unsigned long long>(env.impossible.size());
+  n.append_attribute("unprobed") = env.unprobed;
+  n.append_attribute("single-value") = env.all.Holds();
+  n.append_attribute("conflicts") = env.conflicts_total;
+  AddIntersection(n, input, env.all);
+  for (const WindowConflict& c : env.conflicts) {
+    pugi::xml_node x = n.append_child("conflict");
+    x.append_attribute("early-point") = PointNumber(input, c.early);
+    x.append_attribute("t-min") = XmlNumber(c.t_min).c_str();
+    x.append_attribute("late-point") = PointNumber(input, c.late);
+    x.append_attribute("t-max") = XmlNumber(c.t_max).c_str();
+  }
+  for (const ImpossiblePoint& p : env.impossible) {
+    pugi::xml_node x = n.append_child("impossible");
+    x.append_attribute("point") = PointNumber(input, p.point);
+    x.append_attribute("valley-time") = XmlNumber(p.t_valley).c_str();
+    x.append_attribute("valley-voltage") = XmlNumber(p.v_valley).c_str();
+    if (p.point < input.points.size()) {
+      for (const ParamValue& v : input.points[p.point].values) AddAt(x, v.name, v.value);
+    }
+  }
+  pugi::xml_node schedule = n.append_child("schedule");
+  schedule.append_attribute("bins") = static_cast<unsigned long long>(env.schedule.size());
+  schedule.append_attribute("off-grid") = env.off_grid;
+  for (const ScheduleBin& bin : env.schedule) {
+    pugi::xml_node b = schedule.append_child("bin");
+    b.append_attribute("points") = bin.points;
+    b.append_attribute("impossible") = bin.impossible;
+    b.append_attribute("single-value") = bin.window.Holds();
+    for (const ScheduleBin::Span& span : bin.spans) {
+      const GridDim& dim = grid.dims[span.dim];
+      pugi::xml_node sp = b.append_child("span");
+      sp.append_attribute("param") = dim.param.c_str();
+      sp.append_attribute("from") = XmlNumber(dim.values[span.first]).c_str();
+      sp.append_attribute("to") = XmlNumber(dim.values[span.last]).c_str();
+      if (dim.Categorical()) {  // a device axis: the values index the device names
+        sp.append_attribute("from-device") = dim.labels[span.first].c_str();
+        sp.append_attribute("to-device") = dim.labels[span.last].c_str();
+      }
+    }
+    AddIntersection(b, input, bin.window);
+  }
+}
+
 void AddEdge(pugi::xml_node root, const ReportInput& input, const Grid& grid, const EdgeKey& key,
-             const MarginSource& margin, const WindowColumns& window) {
+             const MarginSource& margin, const WindowColumns& window,
+             const EdgeEnvelope* envelope) {
   pugi::xml_node node = root.append_child("edge");
   node.append_attribute("cell") = key.cell.c_str();
   node.append_attribute("name") = key.edge.c_str();
@@ -125,6 +200,7 @@ void AddEdge(pugi::xml_node root, const ReportInput& input, const Grid& grid, co
     AddRange(node, "dead-time-window-start", window.start, input, key);
     AddRange(node, "dead-time-window-end", window.end, input, key);
   }
+  if (envelope) AddEnvelope(node, input, grid, *envelope);
 }
 
 }  // namespace
@@ -234,7 +310,7 @@ void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerd
   m.append_attribute("positive-means") = margin.positive_means.c_str();
 
   for (const EdgeKey& key : input.edges) {
-    AddEdge(root, input, grid, key, margin, input.window);
+    AddEdge(root, input, grid, key, margin, input.window, input.envelope.Find(key));
   }
 
   pugi::xml_node failed_node = root.append_child("failed-points");

@@ -108,6 +108,11 @@ std::string FindColumnWithPrefix(const std::vector<PointResult>& results,
 
 WindowColumns FindWindowColumns(const std::vector<PointResult>& results) {
   WindowColumns w;
+  // The probe's window (from the settled state, the turn-on withheld) when
+  // the results carry both ends; else what the measuring run saw.
+  std::string probe_start = FindColumnWithPrefix(results, "probe_t_min");
+  std::string probe_end = FindColumnWithPrefix(results, "probe_t_max");
+  if (!probe_start.empty() && !probe_end.empty()) return {probe_start, probe_end};
   for (const char* prefix : {"t_dead_min", "t_clamp", "t_zvs"}) {
     if (w.start.empty()) w.start = FindColumnWithPrefix(results, prefix);
   }

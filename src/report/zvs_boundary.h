@@ -74,7 +74,8 @@ std::string FindColumnWithPrefix(const std::vector<PointResult>& results,
                                  const std::string& prefix);
 
 /// The metric columns that hold the measured dead-time window of an edge:
-/// its start (the shortest dead time that reaches ZVS; the first column
+/// the probe's probe_t_min_s and probe_t_max_s when the results carry both;
+/// else its start (the shortest dead time that reaches ZVS; the first column
 /// starting "t_dead_min", "t_clamp" or "t_zvs", in that preference) and its
 /// end (the longest before ring-back; "t_dead_max", "t_ringback" or
 /// "t_ring_back"). Columns with "__" (hand calculation) are never taken.

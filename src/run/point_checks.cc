@@ -309,6 +309,28 @@ void CheckDeadTimes(const PointContext& c) {
   }
 }
 
+// <require dead-time=T within-window="true">: T must be shorter than the
+// period at every point the requirement covers.
+void CheckRequiredDeadTimes(const PointContext& c) {
+  for (const RequirementSpec& r : c.spec.requirements) {
+    if (r.kind != RequirementSpec::Kind::kGivenDeadTime || r.dead_time_s < c.period) continue;
+    if (!r.where_expression.empty()) {
+      double covers = 0;
+      std::string message;
+      int column = 0;
+      if (!EvaluateExpression(r.where_expression, c.resolved, &covers, &message, &column) ||
+          covers == 0) {
+        continue;  // not covered here (an expression that fails is reported with the results)
+      }
+    }
+    SourceLocation at = c.sweep.FindAttribute(r.where, "dead-time");
+    c.findings->Add(c.point, {at, true, "<require>'s dead-time must be shorter than the period",
+                              "dead-time " + Seconds(r.dead_time_s) + ", period " +
+                                  Seconds(c.period),
+                              c.tmpl.period_expression});
+  }
+}
+
 void CheckPositiveParams(const PointContext& c) {
   for (const CellSpec& cell : c.tmpl.cells) {
     for (const auto& [name, key] :
@@ -451,6 +473,7 @@ void CheckPoint(const SweepSpec& spec, const Template& tmpl, const SourceText& s
     return;
   }
   CheckDeadTimes(c);
+  CheckRequiredDeadTimes(c);
   CheckPositiveParams(c);
   CheckValueCards(c, cards);
   CheckCommands(c, commands);

@@ -37,6 +37,29 @@ bool ScanExpression(const std::string& expr, std::vector<std::string>* names,
   }
 }
 
+// dead-time="45n" within-window="true": the dead time to judge against the
+// probe's window at every covered point.
+bool ParseGivenDeadTime(pugi::xml_node node, const RequirementFail& fail, RequirementSpec* r) {
+  r->kind = RequirementSpec::Kind::kGivenDeadTime;
+  std::string raw = Trim(node.attribute("dead-time").value());
+  std::optional<double> v = ParseSpiceNumber(raw);
+  if (!v || !std::isfinite(*v)) {
+    return fail("dead-time", "bad number '" + raw + "' in attribute 'dead-time'");
+  }
+  if (*v <= 0) return fail("dead-time", "'dead-time' must be > 0 (it is " + raw + ")");
+  r->dead_time_s = *v;
+  std::string within = Trim(node.attribute("within-window").value());
+  if (!node.attribute("within-window")) {
+    return fail("dead-time", "'dead-time' needs within-window=\"true\" (the dead time lies "
+                             "inside the probe's window at every point)");
+  }
+  if (within != "true") {
+    return fail("within-window", "'within-window' takes \"true\" (leave the requirement out "
+                                 "otherwise)");
+  }
+  return true;
+}
+
 }  // namespace
 
 std::string RequirementSpec::Describe() const {
@@ -54,6 +77,9 @@ std::string RequirementSpec::Describe() const {
     case Kind::kDeadTimeWindow:
       out += " dead time within the measured window";
       break;
+    case Kind::kGivenDeadTime:
+      out += " dead time " + FormatEngineering(dead_time_s) + "s within the probe's window";
+      break;
   }
   out += where_expression.empty() ? " over the whole grid" : " where " + where_expression;
   return out;
@@ -62,7 +88,8 @@ std::string RequirementSpec::Describe() const {
 bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const RequirementFail& fail,
                       RequirementSpec* out) {
   static const std::vector<std::string> kAllowed = {
-      "edge", "class", "metric", "min", "max", "dead-time-within-window", "where", "name"};
+      "edge", "class",         "metric", "min",  "max", "dead-time-within-window",
+      "where", "dead-time", "within-window", "name"};
   for (pugi::xml_attribute a : node.attributes()) {
     std::string name = a.name();
     if (std::find(kAllowed.begin(), kAllowed.end(), name) == kAllowed.end()) {
@@ -94,10 +121,16 @@ bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const Re
   bool has_class = node.attribute("class");
   bool has_metric = node.attribute("metric");
   bool has_window = node.attribute("dead-time-within-window");
-  int kinds = int{has_class} + int{has_metric} + int{has_window};
+  bool has_given = node.attribute("dead-time");
+  if (node.attribute("within-window") && !has_given) {
+    return fail("within-window", "'within-window' goes with 'dead-time' (e.g. dead-time=\"45n\" "
+                                 "within-window=\"true\")");
+  }
+  int kinds = int{has_class} + int{has_metric} + int{has_window} + int{has_given};
   if (kinds != 1) {
     return fail(nullptr,
-                "<require> takes exactly one of 'class', 'metric' or 'dead-time-within-window'");
+                "<require> takes exactly one of 'class', 'metric', 'dead-time-within-window' or "
+                "'dead-time' (with within-window=\"true\")");
   }
   if ((node.attribute("min") || node.attribute("max")) && !has_metric) {
     return fail(node.attribute("min") ? "min" : "max", "'min' and 'max' go with 'metric'");
@@ -128,6 +161,8 @@ bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const Re
     if (!std::isnan(r.min) && !std::isnan(r.max) && r.min > r.max) {
       return fail("max", "'max' is below 'min'");
     }
+  } else if (has_given) {
+    if (!ParseGivenDeadTime(node, fail, &r)) return false;
   } else {
     r.kind = RequirementSpec::Kind::kDeadTimeWindow;
     std::string value = Trim(node.attribute("dead-time-within-window").value());

@@ -16,7 +16,9 @@ namespace zvsmap {
 using RequirementFail = std::function<bool(const char* attribute, const std::string& message)>;
 
 /// Parses one <require> element (attributes: edge, class | metric+min/max |
-/// dead-time-within-window="true", optional where and name). `where` is the
+/// dead-time-within-window="true" | dead-time=T within-window="true", optional
+/// where and name). T is a SPICE number > 0; that it is shorter than every
+/// point's period is checked with the points (CheckPoints). `where` is the
 /// element's location. On a problem calls `fail` and returns its result.
 bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const RequirementFail& fail,
                       RequirementSpec* out);

@@ -19,9 +19,12 @@ namespace zvsmap {
 ///                   (either bound may be absent, i.e. NaN); the name
 ///                   "zvs_margin" means the margin the summary uses;
 ///   kDeadTimeWindow the edge's dead time (t_dead_s) lies inside the measured
-///                   dead-time window.
+///                   dead-time window (the probe's [probe_t_min_s,
+///                   probe_t_max_s] when the results carry it);
+///   kGivenDeadTime  the dead time `dead_time_s` (not the one set) lies inside
+///                   the probe's window at every point covered.
 struct RequirementSpec {
-  enum class Kind { kClass, kMetric, kDeadTimeWindow };
+  enum class Kind { kClass, kMetric, kDeadTimeWindow, kGivenDeadTime };
   Kind kind = Kind::kClass;
   std::string name;       ///< optional label from the file; else "" (see Describe)
   std::string cell;       ///< "" = every cell
@@ -30,6 +33,7 @@ struct RequirementSpec {
   std::string metric;     ///< kMetric: column name or "zvs_margin"
   double min = std::numeric_limits<double>::quiet_NaN();  ///< kMetric lower bound, NaN = none
   double max = std::numeric_limits<double>::quiet_NaN();  ///< kMetric upper bound, NaN = none
+  double dead_time_s = std::numeric_limits<double>::quiet_NaN();  ///< kGivenDeadTime, > 0
   std::string where_expression;                           ///< "" = the whole grid
   std::vector<std::string> where_names;                   ///< the names the expression uses
   SourceLocation where;                                   ///< the <require> element

@@ -153,6 +153,21 @@ TEST_F(PointChecksTest, DeadTimeNotShorterThanThePeriod) {
                 Swept(3, "tdh"));
 }
 
+TEST_F(PointChecksTest, RequiredDeadTimeNotShorterThanThePeriod) {
+  // T = 1/fsw: 5 µs at 200 kHz, 2 µs at 500 kHz, 1 µs at 1 MHz.
+  Load("  <axis param=\"fsw\" values=\"200k 500k 1meg\"/>\n"
+       "  <require edge=\"high_on\" dead-time=\"1.5u\" within-window=\"true\"/>\n"
+       "  <require edge=\"high_on\" dead-time=\"3u\" within-window=\"true\" "
+       "where=\"fsw &lt; 300k\"/>\n");
+  std::vector<Diagnostic> problems = Check();
+  ASSERT_EQ(problems.size(), 1u);
+  EXPECT_EQ(problems[0].where.line, 4);
+  EXPECT_EQ(problems[0].message,
+            "<require>'s dead-time must be shorter than the period at 1 of 3 points: point 2 "
+            "(fsw=1meg): dead-time 1.5e-06 s, period 1e-06 s" +
+                Swept(3, "fsw"));
+}
+
 TEST_F(PointChecksTest, ZeroInductanceAndCapacitance) {
   Load("  <set param=\"L\" value=\"0\"/>\n  <set param=\"Cout\" value=\"-1u\"/>\n");
   std::vector<Diagnostic> problems = Check();

@@ -60,13 +60,48 @@ TEST_F(RequirementParserTest, ThreeKinds) {
             "every cell's low_on dead time within the measured window over the whole grid");
 }
 
+TEST_F(RequirementParserTest, GivenDeadTimeWithinTheWindow) {
+  SweepSpec spec = Parse(Sweep(
+      "  <require edge=\"high_on\" dead-time=\"45n\" within-window=\"true\" "
+      "where=\"Iout > 0\"/>\n"));
+  ASSERT_EQ(spec.requirements.size(), 1u);
+  const RequirementSpec& r = spec.requirements[0];
+  EXPECT_EQ(r.kind, RequirementSpec::Kind::kGivenDeadTime);
+  EXPECT_DOUBLE_EQ(r.dead_time_s, 45e-9);
+  EXPECT_EQ(r.Describe(),
+            "every cell's high_on dead time 45ns within the probe's window where Iout > 0");
+}
+
+TEST_F(RequirementParserTest, GivenDeadTimeErrors) {
+  EXPECT_EQ(Error(Sweep("  <require edge=\"high_on\" dead-time=\"45n\"/>\n")),
+            "sweeps/demo.xml:4: 'dead-time' needs within-window=\"true\" (the dead time lies "
+            "inside the probe's window at every point)");
+  EXPECT_EQ(Error(Sweep("  <require edge=\"high_on\" within-window=\"true\"/>\n")),
+            "sweeps/demo.xml:4: 'within-window' goes with 'dead-time' (e.g. dead-time=\"45n\" "
+            "within-window=\"true\")");
+  EXPECT_EQ(Error(Sweep(
+                "  <require edge=\"high_on\" dead-time=\"45n\" within-window=\"yes\"/>\n")),
+            "sweeps/demo.xml:4: 'within-window' takes \"true\" (leave the requirement out "
+            "otherwise)");
+  EXPECT_EQ(Error(Sweep(
+                "  <require edge=\"high_on\" dead-time=\"0\" within-window=\"true\"/>\n")),
+            "sweeps/demo.xml:4: 'dead-time' must be > 0 (it is 0)");
+  EXPECT_EQ(Error(Sweep(
+                "  <require edge=\"high_on\" dead-time=\"fast\" within-window=\"true\"/>\n")),
+            "sweeps/demo.xml:4: bad number 'fast' in attribute 'dead-time'");
+  EXPECT_EQ(Error(Sweep("  <require edge=\"high_on\" dead-time=\"45n\" within-window=\"true\" "
+                        "dead-time-within-window=\"true\"/>\n")),
+            "sweeps/demo.xml:4: <require> takes exactly one of 'class', 'metric', "
+            "'dead-time-within-window' or 'dead-time' (with within-window=\"true\")");
+}
+
 TEST_F(RequirementParserTest, ErrorsNameFileAndLine) {
   EXPECT_EQ(
       Error(Sweep("  <require edge=\"leg.high_on\" class=\"ful\"/>\n")),
       "sweeps/demo.xml:4: bad class 'ful' (use \"full\", or \"partial\" for full or partial)");
   EXPECT_EQ(Error(Sweep("  <require edge=\"leg.high_on\" class=\"full\" metric=\"x\"/>\n")),
-            "sweeps/demo.xml:4: <require> takes exactly one of 'class', 'metric' or "
-            "'dead-time-within-window'");
+            "sweeps/demo.xml:4: <require> takes exactly one of 'class', 'metric', "
+            "'dead-time-within-window' or 'dead-time' (with within-window=\"true\")");
   EXPECT_EQ(Error(Sweep("  <require edge=\"leg.high_on\" metric=\"zvs_margin\"/>\n")),
             "sweeps/demo.xml:4: <require metric=...> needs 'min', 'max' or both");
   EXPECT_EQ(Error(Sweep("  <require edge=\"leg.high_on\" class=\"full\" wher=\"1\"/>\n")),
