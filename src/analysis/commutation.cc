@@ -72,11 +72,8 @@ double TimeBelow(const Segment& s, double level) {
 
 double First(const std::vector<double>& v) { return v.empty() ? kNaN : v.front(); }
 
-// The set dead time against the stretch of the window in which the incoming
-// v_ds meets the criterion (see zvs_timing_margin_* in commutation.h).
-struct TimingMargins {
-  double early = kNaN, late = kNaN;
-};
+}  // namespace
+
 TimingMargins CriterionTiming(const std::vector<double>& t, const std::vector<double>& vds,
                               double limit, double t_off, double t_on, double t_end) {
   TimingMargins out;
@@ -115,8 +112,6 @@ TimingMargins CriterionTiming(const std::vector<double>& t, const std::vector<do
   out.late = pick->second - t_on;  // NaN when the stretch is open at the window's end
   return out;
 }
-
-}  // namespace
 
 EdgeParams EdgeParamsFor(const CellSpec& cell, const Variables& resolved) {
   EdgeParams p;
@@ -294,15 +289,7 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
   m.cell = cell.name;
   m.edge = e.edge;
   m.criterion = criterion.Describe();
-  if (!std::isfinite(v_on)) {
-    m.zvs = ZvsClass::kUnknown;
-  } else if (v_on <= limit) {
-    m.zvs = ZvsClass::kFull;
-  } else if (v_on < 0.5 * rail) {
-    m.zvs = ZvsClass::kPartial;
-  } else {
-    m.zvs = ZvsClass::kHard;
-  }
+  m.zvs = ClassifyTurnOn(v_on, limit, rail);
   auto rel = [&](double tc) { return std::isfinite(tc) ? tc - e.t_off_s : kNaN; };
   m.metrics = {
       {"rail_v", rail},
@@ -329,6 +316,8 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
       {"zvs_timing_margin_early_s", timing.early},
       {"zvs_timing_margin_late_s", timing.late},
   };
+  // The probe run's window (analysis/dead_time_window.h) fills these.
+  for (const char* name : kProbeMetricNames) m.metrics.push_back({name, kNaN});
   return m;
 }
 

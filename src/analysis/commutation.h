@@ -126,6 +126,27 @@ EdgeParams EdgeParamsFor(const CellSpec& cell, const Variables& resolved);
 // (both read the same interpolated v_ds; equality within the interpolation).
 // ---------------------------------------------------------------------------
 
+/// The probe metrics MeasureEdge appends as NaN after the timing margins, in
+/// output order; a probe run fills them (analysis/dead_time_window.h).
+inline constexpr const char* kProbeMetricNames[] = {
+    "probe_t_min_s",   "probe_t_rail_s",   "probe_t_max_s",    "probe_bound_s",
+    "probe_max_at_bound", "probe_t_diode_s", "probe_e_diode_j", "probe_t_valley_s",
+    "probe_v_valley_v", "t_dead_optimal_s", "e_dead_optimal_j"};
+
+/// The set dead time against the criterion stretch of a window (see
+/// zvs_timing_margin_* above): `early` = t_on - t_a, `late` = t_b - t_on.
+struct TimingMargins {
+  double early = std::numeric_limits<double>::quiet_NaN();
+  double late = std::numeric_limits<double>::quiet_NaN();
+};
+
+/// The timing margins of a turn-on at `t_on` against the stretches of
+/// [t_off, t_end] in which `vds` (sampled at `t`) is at most `limit`: the
+/// stretch holding t_on, else the last one that ends before it, else the
+/// first after it; `late` NaN when that stretch is still open at t_end.
+TimingMargins CriterionTiming(const std::vector<double>& t, const std::vector<double>& vds,
+                              double limit, double t_off, double t_on, double t_end);
+
 /// Measures an edge found by FindEdges (see the definitions above).
 EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const EdgeTiming& timing,
                             const ZvsCriterion& criterion, const EdgeParams& params = EdgeParams());

@@ -4,20 +4,6 @@
 
 namespace zvsmap {
 
-const char* ZvsClassName(ZvsClass c) {
-  switch (c) {
-    case ZvsClass::kFull:
-      return "full";
-    case ZvsClass::kPartial:
-      return "partial";
-    case ZvsClass::kHard:
-      return "hard";
-    case ZvsClass::kUnknown:
-      break;
-  }
-  return "unknown";
-}
-
 const std::vector<std::string>& EdgeMetricNames() {
   static const std::vector<std::string> kNames = {"rail_v",
                                                   "i_commutated_a",
@@ -41,7 +27,18 @@ const std::vector<std::string>& EdgeMetricNames() {
                                                   "e_needed_j",
                                                   "zvs_energy_margin",
                                                   "zvs_timing_margin_early_s",
-                                                  "zvs_timing_margin_late_s"};
+                                                  "zvs_timing_margin_late_s",
+                                                  "probe_t_min_s",
+                                                  "probe_t_rail_s",
+                                                  "probe_t_max_s",
+                                                  "probe_bound_s",
+                                                  "probe_max_at_bound",
+                                                  "probe_t_diode_s",
+                                                  "probe_e_diode_j",
+                                                  "probe_t_valley_s",
+                                                  "probe_v_valley_v",
+                                                  "t_dead_optimal_s",
+                                                  "e_dead_optimal_j"};
   return kNames;
 }
 

@@ -5,14 +5,9 @@
 #include <vector>
 
 #include "result/comparison.h"
+#include "result/dead_time_curve.h"
 
 namespace zvsmap {
-
-/// ZVS class of a turn-on, by the sweep's criterion (see README "ZVS class").
-enum class ZvsClass { kFull, kPartial, kHard, kUnknown };
-
-/// "full", "partial", "hard", "unknown".
-const char* ZvsClassName(ZvsClass c);
 
 /// The metric columns MeasureEdge gives every edge, in output order (defined
 /// in commutation.h). The up-front checks of <require metric=...> and
@@ -37,6 +32,9 @@ struct EdgeMeasurement {
   std::vector<Metric> metrics;  ///< in a fixed order (see commutation.h)
   /// The hand calculation beside the metrics (src/handcalc), in prediction order.
   std::vector<Comparison> comparisons = {};
+  /// The incoming v_ds against dead time from the edge's probe run (empty
+  /// when none ran); the class at any dead time reads off it (ClassAtDeadTime).
+  DeadTimeCurve probe_curve = {};
 
   /// The value of a metric by column name, else of a comparison's CSV column
   /// (see FlatColumns), else NaN.

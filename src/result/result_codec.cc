@@ -6,7 +6,7 @@
 namespace zvsmap {
 namespace {
 
-constexpr uint8_t kFormat = 3;
+constexpr uint8_t kFormat = 4;
 // Upper bound for any count read back; a corrupt length must not make the
 // decoder reserve gigabytes.
 constexpr uint32_t kMaxCount = 1u << 24;
@@ -78,6 +78,27 @@ bool DecodeComparison(Reader* r, Comparison* c) {
   return true;
 }
 
+// The probe's v_ds(t_dead) curve: a count, then (t, v) pairs.
+void EncodeCurve(const DeadTimeCurve& c, Writer* w) {
+  w->U32(static_cast<uint32_t>(c.t_dead_s.size()));
+  for (size_t k = 0; k < c.t_dead_s.size(); ++k) {
+    w->F64(c.t_dead_s[k]);
+    w->F64(k < c.v_ds_v.size() ? c.v_ds_v[k] : 0.0);
+  }
+}
+
+bool DecodeCurve(Reader* r, DeadTimeCurve* c) {
+  uint32_t n = 0;
+  if (!r->U32(&n) || n > kMaxCount) return false;
+  for (uint32_t k = 0; k < n; ++k) {  // no reserve: a corrupt count runs out of bytes first
+    double t = 0, v = 0;
+    if (!r->F64(&t) || !r->F64(&v)) return false;
+    c->t_dead_s.push_back(t);
+    c->v_ds_v.push_back(v);
+  }
+  return true;
+}
+
 bool DecodeEdge(Reader* r, EdgeMeasurement* e) {
   uint8_t zvs = 0;
   uint32_t metric_count = 0, comparison_count = 0;
@@ -98,7 +119,7 @@ bool DecodeEdge(Reader* r, EdgeMeasurement* e) {
     if (!DecodeComparison(r, &c)) return false;
     e->comparisons.push_back(std::move(c));
   }
-  return true;
+  return DecodeCurve(r, &e->probe_curve);
 }
 
 }  // namespace
@@ -133,6 +154,7 @@ std::string EncodeResult(const PointResult& r) {
     }
     w.U32(static_cast<uint32_t>(e.comparisons.size()));
     for (const auto& c : e.comparisons) EncodeComparison(c, &w);
+    EncodeCurve(e.probe_curve, &w);
   }
   w.Str(r.solver_aid);
   return w.Take();

@@ -260,6 +260,7 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     return finish();
   }
   if (!MeasureCells(out, ev, &result)) return finish();
+  if (sim.probe) ProbeEdges(point, WithInitialState(point.values, x, tmpl_), simulator, *ev, &result);
   result.status = PointStatus::kOk;
   if (keep_waveforms) ev->settled = std::move(out.waves);
   return finish();

@@ -93,6 +93,17 @@ class PointEvaluator {
   /// Finds and measures every cell's edges in the measured run `out` and adds
   /// the hand calculation; false (with the reason in `result`) on a missing edge.
   bool MeasureCells(const SimulationOutput& out, PointEvaluation* ev, PointResult* result) const;
+  /// The probe runs of every measured edge (run/edge_probe.cc), from the
+  /// settled start-of-period state `values_at_x` (the point's values with the
+  /// slow states' init parameters set): fills each edge's window metrics and
+  /// curve; a probe that fails leaves them NaN and adds its reason to
+  /// `result->reason` (the point stays ok).
+  void ProbeEdges(const Point& point, const std::vector<ParamValue>& values_at_x,
+                  Simulator& simulator, const PointEvaluation& ev, PointResult* result) const;
+  /// One edge's probe run and analysis; false with `why` when it could not run.
+  bool ProbeEdge(const Point& point, const std::vector<ParamValue>& values_at_x,
+                 Simulator& simulator, const FoundEdge& found, const PointEvaluation& ev,
+                 EdgeMeasurement* edge, std::string* why) const;
   /// RenderDeck plus the point's switch models (ApplyDevicesToDeck).
   bool RenderFor(const Point& point, const Variables& resolved, const TranSettings& tran,
                  Deck* deck, std::string* why) const;

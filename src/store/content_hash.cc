@@ -56,6 +56,8 @@ std::string PointContentHash(const std::string& canonical_deck, const SweepSpec&
   h = Fnv1a64(kSeparator + buf, h);
   // The ladder setting, only when not the default (hashes of earlier runs stay valid).
   if (s.solver_aid != "auto") h = Fnv1a64(kSeparator + "solver_aid=" + s.solver_aid, h);
+  // Probe runs add the window metrics (on by default; "off" stores none).
+  h = Fnv1a64(kSeparator + (s.probe ? "probe=window" : "probe=off"), h);
   std::snprintf(buf, sizeof buf, "zvs=%d:%.17g",
                 spec.zvs.kind == ZvsCriterion::Kind::kAbsolute ? 0 : 1, spec.zvs.value);
   h = Fnv1a64(kSeparator + buf, h);

@@ -469,7 +469,7 @@ bool Parser::ParseDerive(pugi::xml_node node) {
 bool Parser::ParseSimulation(pugi::xml_node node) {
   if (!Once(node) || !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol",
                                         "timeout", "settle", "settle-tolerance", "max-newton",
-                                        "max-periods", "solver-aid"})) {
+                                        "max-periods", "solver-aid", "probe"})) {
     return false;
   }
   SimulationSettings& s = spec_->simulation;
@@ -548,6 +548,13 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
                     "'settle-periods' (" + std::to_string(s.settle_periods) +
                         ") is more than 'max-periods' (" + std::to_string(s.max_periods) +
                         "): settling stops after max-periods periods");
+  }
+  if (node.attribute("probe")) {
+    std::string probe = node.attribute("probe").value();
+    if (probe != "on" && probe != "off") {
+      return FailAttr(node, "probe", "'probe' must be 'on' or 'off', got '" + probe + "'");
+    }
+    s.probe = probe == "on";
   }
   // Checked against the aid names in PrepareSweep (run/, which sees sim/).
   if (node.attribute("solver-aid")) s.solver_aid = node.attribute("solver-aid").value();

@@ -70,6 +70,10 @@ struct SimulationSettings {
   /// The convergence ladder (sim/solver_aids.h): "auto" (retry a stiff
   /// failure with each automatic aid), "off", or one aid's name (every run).
   std::string solver_aid = "auto";
+  /// Probe runs (`probe="on"`, the default, or "off"): one more run per edge
+  /// from the settled state with the incoming turn-on withheld, giving the
+  /// dead-time window (analysis/dead_time_window.h).
+  bool probe = true;
   SourceLocation where;
 };
 

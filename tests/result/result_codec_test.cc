@@ -34,6 +34,8 @@ PointResult Sample() {
   Comparison paired{"t_transition_s", "pred", 2.5e-9, -0.0, NAN, true};
   Comparison unpaired{"", "my_guess", 1.0 / 3.0, NAN, NAN, std::nullopt};
   r.edges[0].comparisons = {paired, unpaired};
+  r.edges[0].probe_curve.t_dead_s = {0, 1.25e-8, 2e-7};
+  r.edges[0].probe_curve.v_ds_v = {48, -0.7, NAN};
   return r;
 }
 
@@ -54,6 +56,12 @@ TEST(ResultCodecTest, EveryFieldRoundTripsBitForBit) {
   EXPECT_EQ(out.edges[0].criterion, "v_turn_on <= 10% of rail");
   ASSERT_EQ(out.edges.size(), 2u);
   EXPECT_EQ(out.edges[0].zvs, ZvsClass::kHard);
+  ASSERT_EQ(out.edges[0].probe_curve.t_dead_s.size(), 3u);
+  for (size_t k = 0; k < 3; ++k) {
+    EXPECT_TRUE(SameBits(out.edges[0].probe_curve.t_dead_s[k], in.edges[0].probe_curve.t_dead_s[k]));
+    EXPECT_TRUE(SameBits(out.edges[0].probe_curve.v_ds_v[k], in.edges[0].probe_curve.v_ds_v[k]));
+  }
+  EXPECT_TRUE(out.edges[1].probe_curve.empty());
   ASSERT_EQ(out.edges[0].metrics.size(), 3u);
   for (size_t k = 0; k < 3; ++k) {
     EXPECT_EQ(out.edges[0].metrics[k].column, in.edges[0].metrics[k].column);

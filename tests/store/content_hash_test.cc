@@ -61,5 +61,13 @@ TEST(PointContentHashTest, PredictionsCount) {
   EXPECT_NE(with, PointContentHash("r1 a 0 1\n", spec, t));
 }
 
+TEST(PointContentHashTest, ProbeSettingCounts) {
+  SweepSpec spec;
+  Template t = Parse(kTemplate);
+  std::string on = PointContentHash("r1 a 0 1\n", spec, t);
+  spec.simulation.probe = false;
+  EXPECT_NE(on, PointContentHash("r1 a 0 1\n", spec, t));
+}
+
 }  // namespace
 }  // namespace zvsmap

@@ -458,6 +458,15 @@ TEST_F(SweepParserTest, SettingsOutsideTheirRange) {
   EXPECT_DOUBLE_EQ(spec.zvs.value, 0.499);
 }
 
+// The probe runs (dead-time window): on by default, "off" skips them.
+TEST_F(SweepParserTest, ProbeIsOnUnlessSwitchedOff) {
+  EXPECT_TRUE(Parse(Sweep("")).simulation.probe);
+  EXPECT_TRUE(Parse(Sweep("  <simulation probe=\"on\"/>\n")).simulation.probe);
+  EXPECT_FALSE(Parse(Sweep("  <simulation probe=\"off\"/>\n")).simulation.probe);
+  EXPECT_EQ(Error(Sweep("  <simulation probe=\"no\"/>\n")),
+            "3: 'probe' must be 'on' or 'off', got 'no'");
+}
+
 // Numbers that read differently in SPICE than they look (core/spice_number.h;
 // ngspice source inpeval.c, INPevaluate).
 TEST_F(SweepParserTest, NumbersThatReadDifferentlyThanTheyLook) {
