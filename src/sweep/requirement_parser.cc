@@ -37,25 +37,44 @@ bool ScanExpression(const std::string& expr, std::vector<std::string>* names,
   }
 }
 
+// The number in attribute `name`, judged like every number of the sweep file
+// (core/spice_number: "45M" is milli, "2A" atto): false with the reason when
+// it is refused or not a number.
+bool ReadNumber(pugi::xml_node node, const char* name, const RequirementFail& fail, double* out) {
+  std::string raw = Trim(node.attribute(name).value());
+  NumberSpelling spelling = JudgeSpiceSpelling(raw);
+  if (spelling.kind == NumberSpelling::Kind::kRefused) {
+    return fail(name, "in attribute '" + std::string(name) + "': " + spelling.message);
+  }
+  std::optional<double> v = ParseSpiceNumber(raw);
+  if (!v || !std::isfinite(*v)) {
+    return fail(name, "bad number '" + raw + "' in attribute '" + std::string(name) + "'");
+  }
+  *out = *v;
+  return true;
+}
+
 // dead-time="45n" within-window="true": the dead time to judge against the
 // probe's window at every covered point.
 bool ParseGivenDeadTime(pugi::xml_node node, const RequirementFail& fail, RequirementSpec* r) {
   r->kind = RequirementSpec::Kind::kGivenDeadTime;
-  std::string raw = Trim(node.attribute("dead-time").value());
-  std::optional<double> v = ParseSpiceNumber(raw);
-  if (!v || !std::isfinite(*v)) {
-    return fail("dead-time", "bad number '" + raw + "' in attribute 'dead-time'");
+  double v = 0;
+  if (!ReadNumber(node, "dead-time", fail, &v)) return false;
+  if (v <= 0) {
+    return fail("dead-time", "'dead-time' must be > 0 (it is " +
+                                 Trim(node.attribute("dead-time").value()) + ")");
   }
-  if (*v <= 0) return fail("dead-time", "'dead-time' must be > 0 (it is " + raw + ")");
-  r->dead_time_s = *v;
+  r->dead_time_s = v;
   std::string within = Trim(node.attribute("within-window").value());
   if (!node.attribute("within-window")) {
-    return fail("dead-time", "'dead-time' needs within-window=\"true\" (the dead time lies "
-                             "inside the probe's window at every point)");
+    return fail("dead-time",
+                "'dead-time' needs within-window=\"true\" (the dead time lies "
+                "inside the probe's window at every point)");
   }
   if (within != "true") {
-    return fail("within-window", "'within-window' takes \"true\" (leave the requirement out "
-                                 "otherwise)");
+    return fail("within-window",
+                "'within-window' takes \"true\" (leave the requirement out "
+                "otherwise)");
   }
   return true;
 }
@@ -88,7 +107,7 @@ std::string RequirementSpec::Describe() const {
 bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const RequirementFail& fail,
                       RequirementSpec* out) {
   static const std::vector<std::string> kAllowed = {
-      "edge", "class",         "metric", "min",  "max", "dead-time-within-window",
+      "edge",  "class",     "metric",        "min", "max", "dead-time-within-window",
       "where", "dead-time", "within-window", "name"};
   for (pugi::xml_attribute a : node.attributes()) {
     std::string name = a.name();
@@ -123,8 +142,9 @@ bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const Re
   bool has_window = node.attribute("dead-time-within-window");
   bool has_given = node.attribute("dead-time");
   if (node.attribute("within-window") && !has_given) {
-    return fail("within-window", "'within-window' goes with 'dead-time' (e.g. dead-time=\"45n\" "
-                                 "within-window=\"true\")");
+    return fail("within-window",
+                "'within-window' goes with 'dead-time' (e.g. dead-time=\"45n\" "
+                "within-window=\"true\")");
   }
   int kinds = int{has_class} + int{has_metric} + int{has_window} + int{has_given};
   if (kinds != 1) {
@@ -148,12 +168,9 @@ bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const Re
     if (!IsName(r.metric)) return fail("metric", "bad metric name '" + r.metric + "'");
     for (const char* bound : {"min", "max"}) {
       if (!node.attribute(bound)) continue;
-      std::string raw = Trim(node.attribute(bound).value());
-      std::optional<double> v = ParseSpiceNumber(raw);
-      if (!v) {
-        return fail(bound, "bad number '" + raw + "' in attribute '" + std::string(bound) + "'");
-      }
-      (std::string(bound) == "min" ? r.min : r.max) = *v;
+      double v = 0;
+      if (!ReadNumber(node, bound, fail, &v)) return false;
+      (std::string(bound) == "min" ? r.min : r.max) = v;
     }
     if (std::isnan(r.min) && std::isnan(r.max)) {
       return fail("metric", "<require metric=...> needs 'min', 'max' or both");

@@ -61,9 +61,9 @@ TEST_F(RequirementParserTest, ThreeKinds) {
 }
 
 TEST_F(RequirementParserTest, GivenDeadTimeWithinTheWindow) {
-  SweepSpec spec = Parse(Sweep(
-      "  <require edge=\"high_on\" dead-time=\"45n\" within-window=\"true\" "
-      "where=\"Iout > 0\"/>\n"));
+  SweepSpec spec =
+      Parse(Sweep("  <require edge=\"high_on\" dead-time=\"45n\" within-window=\"true\" "
+                  "where=\"Iout > 0\"/>\n"));
   ASSERT_EQ(spec.requirements.size(), 1u);
   const RequirementSpec& r = spec.requirements[0];
   EXPECT_EQ(r.kind, RequirementSpec::Kind::kGivenDeadTime);
@@ -79,16 +79,20 @@ TEST_F(RequirementParserTest, GivenDeadTimeErrors) {
   EXPECT_EQ(Error(Sweep("  <require edge=\"high_on\" within-window=\"true\"/>\n")),
             "sweeps/demo.xml:4: 'within-window' goes with 'dead-time' (e.g. dead-time=\"45n\" "
             "within-window=\"true\")");
-  EXPECT_EQ(Error(Sweep(
-                "  <require edge=\"high_on\" dead-time=\"45n\" within-window=\"yes\"/>\n")),
+  EXPECT_EQ(Error(Sweep("  <require edge=\"high_on\" dead-time=\"45n\" within-window=\"yes\"/>\n")),
             "sweeps/demo.xml:4: 'within-window' takes \"true\" (leave the requirement out "
             "otherwise)");
-  EXPECT_EQ(Error(Sweep(
-                "  <require edge=\"high_on\" dead-time=\"0\" within-window=\"true\"/>\n")),
+  EXPECT_EQ(Error(Sweep("  <require edge=\"high_on\" dead-time=\"0\" within-window=\"true\"/>\n")),
             "sweeps/demo.xml:4: 'dead-time' must be > 0 (it is 0)");
-  EXPECT_EQ(Error(Sweep(
-                "  <require edge=\"high_on\" dead-time=\"fast\" within-window=\"true\"/>\n")),
-            "sweeps/demo.xml:4: bad number 'fast' in attribute 'dead-time'");
+  EXPECT_EQ(
+      Error(Sweep("  <require edge=\"high_on\" dead-time=\"fast\" within-window=\"true\"/>\n")),
+      "sweeps/demo.xml:4: bad number 'fast' in attribute 'dead-time'");
+  // SPICE reads M as milli (common practice; ngspice manual, "Scale factors"): refused
+  // like every other number of the sweep file, with what it reads.
+  std::string milli =
+      Error(Sweep("  <require edge=\"high_on\" dead-time=\"45M\" within-window=\"true\"/>\n"));
+  EXPECT_EQ(milli.rfind("sweeps/demo.xml:4: in attribute 'dead-time': ", 0), 0u) << milli;
+  EXPECT_NE(milli.find("milli"), std::string::npos) << milli;
   EXPECT_EQ(Error(Sweep("  <require edge=\"high_on\" dead-time=\"45n\" within-window=\"true\" "
                         "dead-time-within-window=\"true\"/>\n")),
             "sweeps/demo.xml:4: <require> takes exactly one of 'class', 'metric', "
