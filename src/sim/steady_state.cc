@@ -12,31 +12,50 @@ double SlowStateFloor(const std::string& vector) {
 
 namespace {
 
-// One run of `periods` periods from `x`: the state at every period boundary
-// (k = 1..periods) and each state's ripple over the last period.
+// One run of `periods` periods from `z` (the states, then the control when
+// there is one): the states at every period boundary (k = 1..periods), each
+// state's ripple over the last period and the regulated vector's average over
+// the last period.
 struct PeriodRun {
   std::vector<std::vector<double>> boundary;  // [k-1][state]
   std::vector<double> ripple;
+  double regulated_mean = NAN;
 };
+
+// Average of v over [t0, t1] (trapezoids, end points interpolated).
+double PeriodMean(const std::vector<double>& t, const std::vector<double>& v, double t0,
+                  double t1) {
+  double sum = 0, tp = t0, vp = Interpolate(t, v, t0);
+  for (size_t k = 0; k < t.size(); ++k) {
+    if (t[k] <= t0 || t[k] >= t1) continue;
+    sum += 0.5 * (v[k] + vp) * (t[k] - tp);
+    tp = t[k];
+    vp = v[k];
+  }
+  sum += 0.5 * (Interpolate(t, v, t1) + vp) * (t1 - tp);
+  return sum / (t1 - t0);
+}
 
 class Shooter {
  public:
+  // `unknowns` are the states, then (with `control`) a pseudo-state for the
+  // control value, so RunFromState can nudge and render them alike.
   Shooter(Simulator& sim, const PeriodRenderer& render, const std::vector<std::string>& vectors,
-          const std::vector<SlowState>& states, double period, const SteadyStateOptions& opt,
-          SteadyStateResult* result)
-      : sim_(sim), render_(render), vectors_(vectors), states_(states), period_(period),
-        opt_(opt), r_(result) {}
+          const std::vector<SlowState>& unknowns, size_t states, const ControlUnknown* control,
+          double period, const SteadyStateOptions& opt, SteadyStateResult* result)
+      : sim_(sim), render_(render), vectors_(vectors), unknowns_(unknowns), n_(states),
+        control_(control), period_(period), opt_(opt), r_(result) {}
 
-  // Simulates `periods` from *x (possibly nudged, see RunFromState). False
+  // Simulates `periods` from *z (possibly nudged, see RunFromState). False
   // (result filled) when a run fails or the period budget is spent.
-  bool Run(std::vector<double>* x, int periods, PeriodRun* out, int nudge = -1) {
+  bool Run(std::vector<double>* z, int periods, PeriodRun* out, int nudge = -1) {
     if (r_->periods + periods > opt_.max_periods) {
       budget_spent_ = true;
       return false;
     }
     std::string error;
     SimulationOutput o =
-        RunFromState(sim_, render_, vectors_, states_, period_, periods, nudge, x, &error);
+        RunFromState(sim_, render_, vectors_, unknowns_, period_, periods, nudge, z, &error);
     r_->periods += periods;
     if (!o.ok) {
       r_->ok = false;
@@ -44,12 +63,53 @@ class Shooter {
       r_->log = o.log;
       return false;
     }
-    const auto& t = o.waves.time();
-    out->boundary.assign(periods, std::vector<double>(states_.size()));
-    out->ripple.assign(states_.size(), 0);
+    Read(o.waves, periods, out);
+    return true;
+  }
+
+  // Scaled residual of a change of the states dx: max_i |dx_i| /
+  // max(ripple_i, floor_i / tol).
+  double Residual(const std::vector<double>& dx, const std::vector<double>& ripple) const {
+    double r = 0;
+    for (size_t i = 0; i < n_; ++i) {
+      double scale = std::max(ripple[i], unknowns_[i].floor / opt_.tolerance);
+      r = std::max(r, std::fabs(dx[i]) / scale);
+    }
+    return r;
+  }
+
+  // The regulation error scaled like Residual: <= tolerance when regulated.
+  double RegulationResidual(double mean) const {
+    if (!control_) return 0;
+    double allowed = std::max(control_->tolerance * std::fabs(control_->target),
+                              SlowStateFloor(control_->vector) * 1e-3);
+    return std::fabs(mean - control_->target) / allowed * opt_.tolerance;
+  }
+
+  // F(z) = [Phi(x, u) - x ; mean - target] for the run `run` from z.
+  void System(const std::vector<double>& z, const PeriodRun& run, std::vector<double>* f) const {
+    f->resize(z.size());
+    for (size_t i = 0; i < n_; ++i) (*f)[i] = run.boundary[0][i] - z[i];
+    if (control_) (*f)[n_] = run.regulated_mean - control_->target;
+  }
+
+  // Scaled residual of the whole system.
+  double SystemResidual(const std::vector<double>& f, const PeriodRun& run) const {
+    double r = Residual(f, run.ripple);
+    return control_ ? std::max(r, RegulationResidual(run.regulated_mean)) : r;
+  }
+
+  bool budget_spent() const { return budget_spent_; }
+  size_t states() const { return n_; }
+
+ private:
+  void Read(const Waveforms& w, int periods, PeriodRun* out) const {
+    const auto& t = w.time();
+    out->boundary.assign(periods, std::vector<double>(n_));
+    out->ripple.assign(n_, 0);
     double t_last = (periods - 1) * period_;
-    for (size_t i = 0; i < states_.size(); ++i) {
-      const auto& v = o.waves.Get(states_[i].vector);
+    for (size_t i = 0; i < n_; ++i) {
+      const auto& v = w.Get(unknowns_[i].vector);
       for (int k = 1; k <= periods; ++k) out->boundary[k - 1][i] = Interpolate(t, v, k * period_);
       double lo = HUGE_VAL, hi = -HUGE_VAL;
       for (size_t j = 0; j < t.size(); ++j) {
@@ -59,26 +119,17 @@ class Shooter {
       }
       out->ripple[i] = hi >= lo ? hi - lo : 0;
     }
-    return true;
-  }
-
-  // Scaled residual of a change dx: max_i |dx_i| / max(ripple_i, floor_i / tol).
-  double Residual(const std::vector<double>& dx, const std::vector<double>& ripple) const {
-    double r = 0;
-    for (size_t i = 0; i < dx.size(); ++i) {
-      double scale = std::max(ripple[i], states_[i].floor / opt_.tolerance);
-      r = std::max(r, std::fabs(dx[i]) / scale);
+    if (control_) {
+      out->regulated_mean = PeriodMean(t, w.Get(control_->vector), t_last, periods * period_);
     }
-    return r;
   }
 
-  bool budget_spent() const { return budget_spent_; }
-
- private:
   Simulator& sim_;
   const PeriodRenderer& render_;
   const std::vector<std::string>& vectors_;
-  const std::vector<SlowState>& states_;
+  const std::vector<SlowState>& unknowns_;
+  size_t n_;
+  const ControlUnknown* control_;
   double period_;
   const SteadyStateOptions& opt_;
   SteadyStateResult* r_;
@@ -152,6 +203,245 @@ double TailEstimate(const std::vector<std::vector<double>>& history,
   return worst;
 }
 
+// The best iterate Newton reached: the unknowns, F there, and its run.
+struct Iterate {
+  std::vector<double> z;
+  std::vector<double> f;
+  PeriodRun run;
+  double residual = HUGE_VAL;
+};
+
+// The finite-difference step of unknown j: a hundredth of the state's ripple
+// (at least ten floors); a thousandth of the control's range, taken downward
+// when upward would leave it.
+double DifferenceStep(size_t j, const std::vector<double>& z, const std::vector<double>& ripple,
+                      const std::vector<SlowState>& unknowns, const ControlUnknown* control) {
+  if (j < ripple.size()) return std::max(0.01 * ripple[j], 10 * unknowns[j].floor);
+  double h = 1e-3 * (control->max - control->min);
+  return z[j] + h > control->max ? -h : h;
+}
+
+// Finite-difference Jacobian of F at `at` (one run per unknown). False when
+// a run fails.
+bool Jacobian(Shooter& shooter, const Iterate& at, const std::vector<SlowState>& unknowns,
+              const ControlUnknown* control, std::vector<std::vector<double>>* jac) {
+  const size_t m = at.z.size();
+  jac->assign(m, std::vector<double>(m, 0));
+  std::vector<double> fp;
+  for (size_t j = 0; j < m; ++j) {
+    std::vector<double> zp = at.z;
+    zp[j] += DifferenceStep(j, at.z, at.run.ripple, unknowns, control);
+    PeriodRun pr;
+    if (!shooter.Run(&zp, 1, &pr, static_cast<int>(j))) return false;
+    const double h = zp[j] - at.z[j];
+    shooter.System(zp, pr, &fp);
+    for (size_t i = 0; i < m; ++i) (*jac)[i][j] = (fp[i] - at.f[i]) / h;
+  }
+  return true;
+}
+
+// The largest fraction of the Newton step dz to take: each state's change
+// limited to a few times its own scale; the control's to a quarter of its
+// range and kept inside it.
+double StepLimit(const Iterate& at, const std::vector<double>& dz,
+                 const std::vector<SlowState>& unknowns, const ControlUnknown* control) {
+  double lambda = 1;
+  for (size_t i = 0; i < at.run.ripple.size(); ++i) {
+    double cap = std::max({10 * std::fabs(at.z[i]), 100 * at.run.ripple[i],
+                           1000 * unknowns[i].floor});
+    if (std::fabs(dz[i]) * lambda > cap) lambda = cap / std::fabs(dz[i]);
+  }
+  if (control) {
+    const size_t u = at.z.size() - 1;
+    double room = dz[u] > 0 ? control->max - at.z[u] : at.z[u] - control->min;
+    double cap = std::min(0.25 * (control->max - control->min), std::max(room, 0.0));
+    if (std::fabs(dz[u]) * lambda > cap) lambda = cap / std::fabs(dz[u]);
+  }
+  return lambda;
+}
+
+// Damped Newton from `start`: the best iterate in `*best`. Stops when the
+// residual is within tolerance, the iterations run out, the Jacobian is
+// singular or the line search stalls; false only when a run failed (result
+// filled) or the budget was spent.
+bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowState>& unknowns,
+            const ControlUnknown* control, const SteadyStateOptions& options,
+            SteadyStateResult* r, Iterate* best) {
+  Iterate at;
+  at.z = std::move(start);
+  if (!shooter.Run(&at.z, 1, &at.run)) return false;
+  shooter.System(at.z, at.run, &at.f);
+  at.residual = shooter.SystemResidual(at.f, at.run);
+  *best = at;
+  while (at.residual > options.tolerance && r->iterations < options.max_newton) {
+    ++r->iterations;
+    std::vector<std::vector<double>> jac;
+    if (!Jacobian(shooter, at, unknowns, control, &jac)) return false;
+    std::vector<double> minus_f(at.f.size()), dz;
+    for (size_t i = 0; i < at.f.size(); ++i) minus_f[i] = -at.f[i];
+    if (!Solve(jac, minus_f, &dz)) return true;
+    double lambda = StepLimit(at, dz, unknowns, control);
+    bool accepted = false;
+    for (int tries = 0; tries < 4; ++tries, lambda *= 0.5) {
+      Iterate next;
+      next.z = at.z;
+      for (size_t i = 0; i < dz.size(); ++i) next.z[i] += lambda * dz[i];
+      if (!shooter.Run(&next.z, 1, &next.run)) return false;
+      shooter.System(next.z, next.run, &next.f);
+      next.residual = shooter.SystemResidual(next.f, next.run);
+      if (next.residual < at.residual || tries == 3) {
+        accepted = next.residual < at.residual;
+        at = std::move(next);
+        break;
+      }
+    }
+    if (at.residual < best->residual) *best = at;
+    if (!accepted) return true;  // Newton stalls: the caller falls back
+  }
+  return true;
+}
+
+// Period by period at a fixed control, from *z (its control entry, if any,
+// kept): settled when the last `window` period boundaries all lie within
+// tolerance of the latest AND the geometric extrapolation of the remaining
+// approach (TailEstimate) is within tolerance too.
+struct PeriodSettle {
+  bool settled = false;
+  double residual = HUGE_VAL;
+  std::vector<double> ripple;
+  double regulated_mean = NAN;
+};
+
+PeriodSettle SettleByPeriods(Shooter& shooter, std::vector<double>* z,
+                             std::vector<double> ripple, const SteadyStateOptions& options,
+                             const SteadyStateResult& r) {
+  const size_t n = shooter.states();
+  PeriodSettle out;
+  out.ripple = std::move(ripple);
+  auto states_of = [&](const std::vector<double>& v) {
+    return std::vector<double>(v.begin(), v.begin() + n);
+  };
+  std::vector<std::vector<double>> history = {states_of(*z)};
+  const size_t window = static_cast<size_t>(std::max(2, options.window));
+  const size_t keep = 2 * window;  // boundaries kept for the tail estimate
+  while (true) {
+    int chunk = std::min(std::max(1, options.chunk_periods), options.max_periods - r.periods);
+    PeriodRun run;
+    if (chunk <= 0 || !shooter.Run(z, chunk, &run)) break;
+    history.back() = states_of(*z);  // the state actually used (a retry may nudge it)
+    for (const auto& b : run.boundary) history.push_back(b);
+    out.ripple = run.ripple;
+    out.regulated_mean = run.regulated_mean;
+    std::copy(history.back().begin(), history.back().end(), z->begin());
+    if (history.size() > keep + 1) history.erase(history.begin(), history.end() - (keep + 1));
+    if (history.size() < window + 1) continue;
+    double spread = 0;
+    for (size_t k = history.size() - (window + 1); k + 1 < history.size(); ++k) {
+      std::vector<double> d(n);
+      for (size_t i = 0; i < n; ++i) d[i] = history[k][i] - history.back()[i];
+      spread = std::max(spread, shooter.Residual(d, out.ripple));
+    }
+    out.residual = std::max(spread, TailEstimate(history, [&](const std::vector<double>& d) {
+                              return shooter.Residual(d, out.ripple);
+                            }));
+    if (out.residual <= options.tolerance) {
+      out.settled = true;
+      break;
+    }
+  }
+  return out;
+}
+
+// The period-by-period fallback with a control: settles at a fixed control,
+// then moves the control by a secant step on the regulation error (the first
+// step a small probe, since the sign of the gain is not known), up to
+// kControlRounds times.
+constexpr int kControlRounds = 8;
+
+PeriodSettle RegulateByPeriods(Shooter& shooter, std::vector<double>* z, std::vector<double> ripple,
+                               const ControlUnknown& control, const SteadyStateOptions& options,
+                               const SteadyStateResult& r) {
+  const size_t u = z->size() - 1;
+  double u_prev = NAN, e_prev = NAN;
+  PeriodSettle out;
+  for (int round = 0; round < kControlRounds; ++round) {
+    out = SettleByPeriods(shooter, z, ripple, options, r);
+    if (!r.ok || !out.settled) return out;
+    ripple = out.ripple;
+    double e = out.regulated_mean - control.target;
+    double reg = shooter.RegulationResidual(out.regulated_mean);
+    out.residual = std::max(out.residual, reg);
+    if (reg <= options.tolerance) return out;
+    double slope = std::isfinite(u_prev) && (*z)[u] != u_prev ? (e - e_prev) / ((*z)[u] - u_prev)
+                                                              : NAN;
+    u_prev = (*z)[u];
+    e_prev = e;
+    double next = std::isfinite(slope) && slope != 0
+                      ? u_prev - e / slope
+                      : u_prev + (u_prev + 0.005 * (control.max - control.min) > control.max
+                                      ? -0.005
+                                      : 0.005) * (control.max - control.min);
+    (*z)[u] = std::min(control.max, std::max(control.min, next));
+  }
+  out.settled = false;
+  return out;
+}
+
+// Both searches: Newton (shooting) first, then period by period from the
+// best iterate.
+SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& render,
+                                   const std::vector<std::string>& vectors,
+                                   const std::vector<SlowState>& states,
+                                   const ControlUnknown* control, double period_s,
+                                   const SteadyStateOptions& options) {
+  SteadyStateResult r;
+  r.ok = true;
+  std::vector<SlowState> unknowns = states;
+  if (control) {
+    unknowns.push_back({control->vector, control->initial, 1e-6 * (control->max - control->min)});
+  }
+  Shooter shooter(simulator, render, vectors, unknowns, states.size(), control, period_s,
+                  options, &r);
+  std::vector<double> z(unknowns.size());
+  for (size_t i = 0; i < z.size(); ++i) z[i] = unknowns[i].initial;
+  r.state.assign(z.begin(), z.begin() + states.size());
+  if (z.empty()) {
+    // Nothing slow to settle: the circuit is periodic from the first period.
+    r.settled = true;
+    r.method = "none";
+    return r;
+  }
+  auto finish = [&](const std::vector<double>& at, const std::vector<double>& ripple,
+                    double residual, double mean, bool settled) {
+    r.settled = settled;
+    r.residual = residual;
+    r.state.assign(at.begin(), at.begin() + states.size());
+    r.ripple = ripple;
+    if (control) {
+      r.control = at.back();
+      r.regulated_mean = mean;
+    }
+    return r;
+  };
+  Iterate best;
+  best.z = z;
+  best.run.ripple.assign(states.size(), 0);
+  if (options.method == SteadyStateOptions::Method::kShooting) {
+    r.method = "shooting";
+    if (!Newton(shooter, z, unknowns, control, options, &r, &best) && !r.ok) return r;
+    if (best.residual <= options.tolerance) {
+      return finish(best.z, best.run.ripple, best.residual, best.run.regulated_mean, true);
+    }
+  }
+  r.method = "periods";
+  z = best.z;
+  PeriodSettle p = control ? RegulateByPeriods(shooter, &z, best.run.ripple, *control, options, r)
+                           : SettleByPeriods(shooter, &z, best.run.ripple, options, r);
+  if (!r.ok) return r;
+  double residual = std::isfinite(p.residual) ? p.residual : best.residual;
+  return finish(z, p.ripple, residual, p.regulated_mean, p.settled);
+}
+
 }  // namespace
 
 SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render,
@@ -180,150 +470,15 @@ SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRend
                                           const std::vector<std::string>& vectors,
                                           const std::vector<SlowState>& states, double period_s,
                                           const SteadyStateOptions& options) {
-  SteadyStateResult r;
-  r.ok = true;
-  Shooter shooter(simulator, render, vectors, states, period_s, options, &r);
-  const size_t n = states.size();
-  std::vector<double> x(n);
-  for (size_t i = 0; i < n; ++i) x[i] = states[i].initial;
-  r.state = x;
-  if (n == 0) {
-    // Nothing slow to settle: the circuit is periodic from the first period.
-    r.settled = true;
-    r.method = "none";
-    return r;
-  }
+  return SolveSteadyState(simulator, render, vectors, states, nullptr, period_s, options);
+}
 
-  std::vector<double> best_x = x;
-  double best_residual = HUGE_VAL;
-  std::vector<double> best_ripple(n, 0);
-
-  if (options.method == SteadyStateOptions::Method::kShooting) {
-    r.method = "shooting";
-    PeriodRun run;
-    if (!shooter.Run(&x, 1, &run)) {
-      if (!r.ok) return r;
-    } else {
-      std::vector<double> fx = run.boundary[0];
-      std::vector<double> ripple = run.ripple;
-      auto residual_of = [&](const std::vector<double>& at, const std::vector<double>& phi,
-                             const std::vector<double>& rip) {
-        std::vector<double> f(n);
-        for (size_t i = 0; i < n; ++i) f[i] = phi[i] - at[i];
-        return shooter.Residual(f, rip);
-      };
-      double res = residual_of(x, fx, ripple);
-      best_x = x;
-      best_residual = res;
-      best_ripple = ripple;
-      bool failed = false;
-      while (res > options.tolerance && r.iterations < options.max_newton && !failed) {
-        ++r.iterations;
-        // Finite-difference Jacobian of F(x) = Phi(x) - x, one run per state.
-        std::vector<std::vector<double>> jac(n, std::vector<double>(n, 0));
-        for (size_t j = 0; j < n && !failed; ++j) {
-          std::vector<double> xp = x;
-          xp[j] += std::max(0.01 * ripple[j], 10 * states[j].floor);
-          PeriodRun pr;
-          if (!shooter.Run(&xp, 1, &pr, static_cast<int>(j))) {
-            failed = true;
-            break;
-          }
-          double h = xp[j] - x[j];
-          for (size_t i = 0; i < n; ++i) {
-            jac[i][j] = (pr.boundary[0][i] - fx[i]) / h - (i == j ? 1.0 : 0.0);
-          }
-        }
-        if (failed) break;
-        std::vector<double> minus_f(n), dx;
-        for (size_t i = 0; i < n; ++i) minus_f[i] = -(fx[i] - x[i]);
-        if (!Solve(jac, minus_f, &dx)) break;
-        // Limit the step to a few times the state's own scale, then halve
-        // it while the residual does not fall (damped Newton).
-        double lambda = 1;
-        for (size_t i = 0; i < n; ++i) {
-          double cap = std::max({10 * std::fabs(x[i]), 100 * ripple[i], 1000 * states[i].floor});
-          if (std::fabs(dx[i]) * lambda > cap) lambda = cap / std::fabs(dx[i]);
-        }
-        bool accepted = false;
-        for (int tries = 0; tries < 4 && !failed; ++tries, lambda *= 0.5) {
-          std::vector<double> xn(n);
-          for (size_t i = 0; i < n; ++i) xn[i] = x[i] + lambda * dx[i];
-          PeriodRun nr;
-          if (!shooter.Run(&xn, 1, &nr)) {
-            failed = true;
-            break;
-          }
-          double rn = residual_of(xn, nr.boundary[0], nr.ripple);
-          if (rn < res || tries == 3) {
-            accepted = rn < res;
-            x = xn;
-            fx = nr.boundary[0];
-            ripple = nr.ripple;
-            res = rn;
-            break;
-          }
-        }
-        if (res < best_residual) {
-          best_x = x;
-          best_residual = res;
-          best_ripple = ripple;
-        }
-        if (!accepted) break;  // Newton stalls: fall back
-      }
-      if (!r.ok) return r;
-      if (best_residual <= options.tolerance) {
-        r.settled = true;
-        r.residual = best_residual;
-        r.state = best_x;
-        r.ripple = best_ripple;
-        return r;
-      }
-    }
-  }
-
-  // Period by period from the best state so far: settled when the last
-  // `window` period boundaries all lie within tolerance of the latest AND the
-  // geometric extrapolation of the remaining approach (TailEstimate) is
-  // within tolerance too.
-  r.method = "periods";
-  x = best_x;
-  std::vector<std::vector<double>> history = {x};
-  std::vector<double> ripple = best_ripple;
-  double last = HUGE_VAL;
-  const size_t window = static_cast<size_t>(std::max(2, options.window));
-  const size_t keep = 2 * window;  // boundaries kept for the tail estimate
-  while (true) {
-    int chunk = std::min(std::max(1, options.chunk_periods), options.max_periods - r.periods);
-    PeriodRun run;
-    if (chunk <= 0 || !shooter.Run(&x, chunk, &run)) break;
-    history.back() = x;  // the state actually used (a retry may nudge it)
-    for (const auto& b : run.boundary) history.push_back(b);
-    ripple = run.ripple;
-    x = history.back();
-    if (history.size() > keep + 1) history.erase(history.begin(), history.end() - (keep + 1));
-    if (history.size() >= window + 1) {
-      double spread = 0;
-      for (size_t k = history.size() - (window + 1); k + 1 < history.size(); ++k) {
-        std::vector<double> d(n);
-        for (size_t i = 0; i < n; ++i) d[i] = history[k][i] - x[i];
-        spread = std::max(spread, shooter.Residual(d, ripple));
-      }
-      last = std::max(spread, TailEstimate(history, [&](const std::vector<double>& d) {
-                        return shooter.Residual(d, ripple);
-                      }));
-      if (last <= options.tolerance) {
-        r.settled = true;
-        break;
-      }
-    }
-  }
-  if (!r.ok) return r;
-  r.residual = last;
-  if (!std::isfinite(last)) r.residual = best_residual;
-  r.state = x;
-  r.ripple = ripple;
-  return r;
+SteadyStateResult FindRegulatedSteadyState(Simulator& simulator, const PeriodRenderer& render,
+                                           const std::vector<std::string>& vectors,
+                                           const std::vector<SlowState>& states,
+                                           const ControlUnknown& control, double period_s,
+                                           const SteadyStateOptions& options) {
+  return SolveSteadyState(simulator, render, vectors, states, &control, period_s, options);
 }
 
 }  // namespace zvsmap

@@ -4,6 +4,7 @@
 // nothing about templates or commutation analysis.
 #pragma once
 
+#include <cmath>
 #include <functional>
 #include <string>
 #include <vector>
@@ -48,6 +49,20 @@ SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render
                               const std::vector<SlowState>& states, double period_s, int periods,
                               int nudge, std::vector<double>* x, std::string* render_error);
 
+/// A control parameter that the solve adjusts, as one more unknown, so that
+/// the period average of `vector` equals `target` (a regulated converter in
+/// steady state: shooting with a parameter unknown, ../shared/REFERENCES.md
+/// sec. 9). The renderer receives the control value as the last entry of x.
+struct ControlUnknown {
+  std::string vector;       ///< the regulated vector, lower-case, e.g. "v(out)"
+  double target = 0;        ///< its set point (period average)
+  double initial = 0;       ///< starting control value (the template's own)
+  double min = 0, max = 1;  ///< the control's admissible range
+  /// Regulated when |mean - target| <= tolerance * |target| (or <= the
+  /// state floor when the target is 0).
+  double tolerance = 1e-4;
+};
+
 /// Limits and tolerances of the search.
 struct SteadyStateOptions {
   enum class Method { kShooting, kPeriods };
@@ -84,6 +99,10 @@ struct SteadyStateResult {
   double residual = 0;
   std::vector<double> state;   ///< the settled (or last) start-of-period state
   std::vector<double> ripple;  ///< each state's ripple over the last period
+  /// With a control unknown: its settled value and the regulated vector's
+  /// average over the last simulated period (NaN without one).
+  double control = NAN;
+  double regulated_mean = NAN;
 };
 
 /// Finds the periodic steady state. `vectors` are the names to ask the
@@ -101,5 +120,19 @@ SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRend
                                           const std::vector<std::string>& vectors,
                                           const std::vector<SlowState>& states, double period_s,
                                           const SteadyStateOptions& options);
+
+/// The same search with `control` as one more unknown and its regulation
+/// equation as one more residual: Newton on F(x, u) = [Phi(x, u) - x ;
+/// mean_T(y) - y_set] with one more finite-difference column (perturb u),
+/// the step kept inside [min, max]. If Newton does not converge, it settles
+/// period by period at a fixed control and corrects the control by secant
+/// steps on the regulation error (an integral loop's job in steady state).
+/// `vectors` must include control.vector. The result is settled only when
+/// both the states and the regulation are within their tolerances.
+SteadyStateResult FindRegulatedSteadyState(Simulator& simulator, const PeriodRenderer& render,
+                                           const std::vector<std::string>& vectors,
+                                           const std::vector<SlowState>& states,
+                                           const ControlUnknown& control, double period_s,
+                                           const SteadyStateOptions& options);
 
 }  // namespace zvsmap

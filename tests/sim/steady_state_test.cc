@@ -18,6 +18,7 @@ class AffineMapSimulator : public Simulator {
   double a[2][2] = {{0.5, 0.2}, {-0.1, 0.9}};
   double b[2] = {1.0, 2.0};
   double ripple[2] = {0.5, 0.01};
+  double c[2] = {0, 0};  // the control's effect per period: x' = A x + b + c u
   int runs = 0;
   SimulationOutput Run(const std::string& netlist, const std::vector<std::string>& vectors,
                        double tstop_s) override {
@@ -25,15 +26,16 @@ class AffineMapSimulator : public Simulator {
     std::istringstream in(netlist);
     double x[2];
     int periods = 0;
-    in >> x[0] >> x[1] >> periods;
+    double u = 0;
+    in >> x[0] >> x[1] >> periods >> u;
     SimulationOutput out;
     out.ok = true;
     std::vector<double> t;
     std::vector<double> v[2];
     const int per = 10;
     for (int k = 0; k < periods; ++k) {
-      double next[2] = {a[0][0] * x[0] + a[0][1] * x[1] + b[0],
-                        a[1][0] * x[0] + a[1][1] * x[1] + b[1]};
+      double next[2] = {a[0][0] * x[0] + a[0][1] * x[1] + b[0] + c[0] * u,
+                        a[1][0] * x[0] + a[1][1] * x[1] + b[1] + c[1] * u};
       for (int j = 1; j <= per; ++j) {
         double f = static_cast<double>(j) / per;
         t.push_back((k + f) * tstop_s / (periods + kPeriodOverrun));
@@ -65,6 +67,16 @@ PeriodRenderer Renderer() {
   return [](const std::vector<double>& x, int periods, std::string* netlist, std::string*) {
     char buf[128];
     std::snprintf(buf, sizeof buf, "%.17g %.17g %d", x[0], x[1], periods);
+    *netlist = buf;
+    return true;
+  };
+}
+
+// The renderer of a run with a control unknown: the control is x's last entry.
+PeriodRenderer ControlRenderer() {
+  return [](const std::vector<double>& x, int periods, std::string* netlist, std::string*) {
+    char buf[160];
+    std::snprintf(buf, sizeof buf, "%.17g %.17g %d %.17g", x[0], x[1], periods, x[2]);
     *netlist = buf;
     return true;
   };
@@ -174,6 +186,87 @@ TEST(SteadyStateTest, SlowMapIsReportedUnsettledWithinThePeriodBudget) {
   ASSERT_TRUE(r.ok);
   EXPECT_FALSE(r.settled);
   EXPECT_LE(r.periods, 50);
+  EXPECT_GT(r.residual, options.tolerance);
+}
+
+// The affine map with a control: the fixed point with state 1 held at the
+// target solves (I - A) x = b + c u together with x1 = target, two linear
+// equations in (x0, u). Linear algebra, no source.
+struct RegulatedFixedPoint {
+  double x0, u;
+};
+RegulatedFixedPoint SolveRegulated(const AffineMapSimulator& sim, double target) {
+  // Row 0: (1 - a00) x0 - c0 u = b0 + a01 target; row 1: -a10 x0 - c1 u = b1 - (1 - a11) target.
+  double m00 = 1 - sim.a[0][0], m01 = -sim.c[0], r0 = sim.b[0] + sim.a[0][1] * target;
+  double m10 = -sim.a[1][0], m11 = -sim.c[1], r1 = sim.b[1] - (1 - sim.a[1][1]) * target;
+  double det = m00 * m11 - m01 * m10;
+  return {(r0 * m11 - m01 * r1) / det, (m00 * r1 - m10 * r0) / det};
+}
+
+AffineMapSimulator ControlledMap() {
+  AffineMapSimulator sim;
+  sim.c[0] = 2.0;
+  sim.c[1] = 0.5;
+  sim.ripple[1] = 0;  // state 1 then moves linearly, so its period mean is exact
+  return sim;
+}
+
+ControlUnknown ControlOnOut() {
+  ControlUnknown control;
+  control.vector = "v(out)";
+  control.target = 30;
+  control.initial = 0.5;
+  control.min = 0;
+  control.max = 100;  // the fixed point needs u = 24 (x0 = 110)
+  return control;
+}
+
+TEST(SteadyStateTest, ShootingWithAControlHoldsTheRegulatedMean) {
+  AffineMapSimulator sim = ControlledMap();
+  ControlUnknown control = ControlOnOut();
+  SteadyStateOptions options;
+  SteadyStateResult r =
+      FindRegulatedSteadyState(sim, ControlRenderer(), kVectors, kStates, control, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  EXPECT_EQ(r.method, "shooting");
+  EXPECT_EQ(r.iterations, 1);  // affine in (x, u): one Newton step
+  RegulatedFixedPoint want = SolveRegulated(sim, control.target);
+  EXPECT_NEAR(r.control, want.u, 1e-6);
+  EXPECT_NEAR(r.state[0], want.x0, 1e-6);
+  EXPECT_NEAR(r.state[1], control.target, 1e-6);
+  EXPECT_NEAR(r.regulated_mean, control.target, control.tolerance * control.target);
+  ASSERT_EQ(r.state.size(), 2u);  // the control is reported apart from the states
+}
+
+TEST(SteadyStateTest, PeriodByPeriodWithAControlReachesTheSameOperatingPoint) {
+  AffineMapSimulator sim = ControlledMap();
+  ControlUnknown control = ControlOnOut();
+  SteadyStateOptions options;
+  options.method = SteadyStateOptions::Method::kPeriods;
+  options.max_periods = 5000;
+  SteadyStateResult r =
+      FindRegulatedSteadyState(sim, ControlRenderer(), kVectors, kStates, control, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  EXPECT_EQ(r.method, "periods");
+  RegulatedFixedPoint want = SolveRegulated(sim, control.target);
+  // Settled to the states' tolerance (1e-3 of the scale 1) and the
+  // regulation's (1e-4 of 30).
+  EXPECT_NEAR(r.regulated_mean, control.target, control.tolerance * control.target);
+  EXPECT_NEAR(r.control, want.u, 0.02 * std::fabs(want.u));
+}
+
+TEST(SteadyStateTest, AControlOutOfRangeIsReportedUnsettled) {
+  AffineMapSimulator sim = ControlledMap();
+  ControlUnknown control = ControlOnOut();
+  control.max = 0.6;  // the target needs a larger control than this
+  SteadyStateOptions options;
+  SteadyStateResult r =
+      FindRegulatedSteadyState(sim, ControlRenderer(), kVectors, kStates, control, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  EXPECT_FALSE(r.settled);
+  EXPECT_LE(r.control, control.max);
   EXPECT_GT(r.residual, options.tolerance);
 }
 
