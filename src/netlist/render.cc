@@ -128,6 +128,7 @@ std::vector<std::string> VectorsToSave(const Template& tmpl) {
     for (const std::string& v : CellVectorsFor(c).All()) add(v);
   }
   for (const auto& s : tmpl.states) add(s.vector);
+  for (const auto& v : RegulationVectors(tmpl.regulation, tmpl.power)) add(v);
   return out;
 }
 

@@ -141,6 +141,23 @@ bool ParseCell(const std::vector<std::string>& words, const std::string& path, i
   return true;
 }
 
+// `*@ control` and `*@ regulate` come together and name declared parameters.
+template <typename RequireParam>
+bool CheckRegulation(const Template& t, const RequireParam& require_param, Diagnostic* error) {
+  const RegulationSpec& r = t.regulation;
+  if (r.param.empty() != r.vector.empty()) {
+    const SourceLocation& where = r.param.empty() ? r.regulate_where : r.control_where;
+    *error = Diagnostic{where,
+                        r.param.empty() ? "'*@ regulate' needs a '*@ control <param> min= max='"
+                                        : "'*@ control' needs a '*@ regulate v(<node>) target='",
+                        {}};
+    return false;
+  }
+  if (!r.declared()) return true;
+  return require_param(r.param, r.control_where, "'*@ control'") &&
+         require_param(r.target, r.regulate_where, "'*@ regulate' target");
+}
+
 }  // namespace
 
 std::vector<std::string> Template::ParamNames() const {
@@ -263,9 +280,15 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
         out->model_bindings.emplace_back(Lower(words[k].substr(0, eq)),
                                          Lower(words[k].substr(eq + 1)));
       }
+    } else if (IsRegulationAnnotation(kind)) {
+      if (!ParseRegulationAnnotation(words, {path, a.line, 0}, &out->regulation, &out->power,
+                                     error)) {
+        return false;
+      }
     } else {
       *error = At(path, a.line,
-                  "unknown annotation '*@ " + words[0] + "' (known: period, cell, state, model)");
+                  "unknown annotation '*@ " + words[0] +
+                      "' (known: period, cell, state, model, control, regulate, power)");
       return false;
     }
   }
@@ -303,7 +326,7 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
   for (const auto& s : out->states) {
     if (!require_param(s.init_param, s.where, "state '" + s.vector + "'")) return false;
   }
-  return true;
+  return CheckRegulation(*out, require_param, error);
 }
 
 bool LoadTemplate(const std::string& path, Template* out, Diagnostic* error) {

@@ -7,6 +7,7 @@
 
 #include "core/diagnostic.h"
 #include "netlist/deck.h"
+#include "netlist/regulation_annotations.h"
 
 namespace zvsmap {
 
@@ -63,6 +64,11 @@ struct Template {
   std::string model;
   std::vector<std::pair<std::string, std::string>> model_bindings;
   SourceLocation model_where;
+  /// `*@ control` + `*@ regulate` (netlist/regulation_annotations.h); not
+  /// declared = the template can only run open loop.
+  RegulationSpec regulation;
+  /// `*@ power`: the ports of the operating-point record (optional).
+  PowerSpec power;
 
   /// The names of all declared parameters, in file order.
   std::vector<std::string> ParamNames() const;

@@ -6,6 +6,7 @@
 #include <vector>
 
 #include "result/edge_metrics.h"
+#include "result/operating_point.h"
 #include "result/point_status.h"
 #include "result/settle_record.h"
 
@@ -19,6 +20,8 @@ struct PointResult {
   std::string log;     ///< the simulator's messages, kept when the point failed
   std::vector<EdgeMeasurement> edges;
   SettleRecord settle;
+  /// The settled operating point (loop, control, averages, power balance).
+  OperatingPoint operating;
   /// The solver aid the point ran with (sim/solver_aids.h): "none", an aid's
   /// name, or empty when no run succeeded.
   std::string solver_aid;

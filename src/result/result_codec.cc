@@ -6,7 +6,7 @@
 namespace zvsmap {
 namespace {
 
-constexpr uint8_t kFormat = 4;
+constexpr uint8_t kFormat = 5;
 // Upper bound for any count read back; a corrupt length must not make the
 // decoder reserve gigabytes.
 constexpr uint32_t kMaxCount = 1u << 24;
@@ -122,6 +122,34 @@ bool DecodeEdge(Reader* r, EdgeMeasurement* e) {
   return DecodeCurve(r, &e->probe_curve);
 }
 
+void EncodeOperatingPoint(const OperatingPoint& op, Writer* w) {
+  w->U8(static_cast<uint8_t>(op.loop));
+  for (double v : {op.control, op.set_point, op.regulated_avg, op.p_in_w, op.p_out_w}) w->F64(v);
+  w->U32(static_cast<uint32_t>(op.averages.size()));
+  for (const auto& a : op.averages) {
+    w->Str(a.vector);
+    w->F64(a.value);
+  }
+}
+
+bool DecodeOperatingPoint(Reader* r, OperatingPoint* op) {
+  uint8_t loop = 0;
+  uint32_t count = 0;
+  if (!r->U8(&loop) || loop > static_cast<uint8_t>(LoopKind::kRegulated)) return false;
+  op->loop = static_cast<LoopKind>(loop);
+  for (double* v : {&op->control, &op->set_point, &op->regulated_avg, &op->p_in_w, &op->p_out_w}) {
+    if (!r->F64(v)) return false;
+  }
+  if (!r->U32(&count) || count > kMaxCount) return false;
+  op->averages.clear();
+  for (uint32_t k = 0; k < count; ++k) {
+    VectorAverage a;
+    if (!r->Str(&a.vector) || !r->F64(&a.value)) return false;
+    op->averages.push_back(std::move(a));
+  }
+  return true;
+}
+
 }  // namespace
 
 std::string EncodeResult(const PointResult& r) {
@@ -157,6 +185,7 @@ std::string EncodeResult(const PointResult& r) {
     EncodeCurve(e.probe_curve, &w);
   }
   w.Str(r.solver_aid);
+  EncodeOperatingPoint(r.operating, &w);
   return w.Take();
 }
 
@@ -192,7 +221,7 @@ bool DecodeResult(const std::string& data, PointResult* out) {
     if (!DecodeEdge(&r, &e)) return false;
     out->edges.push_back(std::move(e));
   }
-  return r.Str(&out->solver_aid) && r.AtEnd();
+  return r.Str(&out->solver_aid) && DecodeOperatingPoint(&r, &out->operating) && r.AtEnd();
 }
 
 }  // namespace zvsmap

@@ -37,7 +37,9 @@ struct SettleRecord {
   int iterations = 0;  ///< Newton iterations (shooting) or 0
   int periods = 0;     ///< switching periods simulated in all
   double residual = std::numeric_limits<double>::quiet_NaN();  ///< final relative residual
-  /// The settled start-of-period state, in template order.
+  /// The settled start-of-period state, in template order, then (regulated
+  /// loop) the control parameter's settled value: the parameters that
+  /// reproduce the settled period when set on the point.
   std::vector<SettledState> initial_state;
 };
 

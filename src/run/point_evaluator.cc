@@ -10,6 +10,7 @@
 #include "handcalc/hand_calculation.h"
 #include "result/edge_identity.h"
 #include "sim/engine_messages.h"
+#include "run/operating_point_measure.h"
 #include "run/solver_ladder.h"
 #include "sim/steady_state.h"
 
@@ -87,23 +88,31 @@ std::string MapEngineLog(const std::string& log, const Deck& deck) {
   return out;
 }
 
-// The point's values with each slow state's init parameter set to `x`.
-std::vector<ParamValue> WithInitialState(std::vector<ParamValue> values,
-                                         const std::vector<double>& x, const Template& tmpl) {
-  for (size_t i = 0; i < x.size(); ++i) {
-    const std::string& name = tmpl.states[i].init_param;
-    auto it = std::find_if(values.begin(), values.end(),
-                           [&](const ParamValue& v) { return Lower(v.name) == name; });
-    if (it != values.end()) {
-      it->value = x[i];
-    } else {
-      values.push_back({name, x[i]});
-    }
+// `values` with parameter `name` set to `value`.
+void SetValue(std::vector<ParamValue>* values, const std::string& name, double value) {
+  auto it = std::find_if(values->begin(), values->end(),
+                         [&](const ParamValue& v) { return Lower(v.name) == name; });
+  if (it != values->end()) {
+    it->value = value;
+  } else {
+    values->push_back({name, value});
   }
+}
+
+// The point's values with each slow state's init parameter set to `z` and,
+// when `z` has one more entry, the control parameter set to it.
+std::vector<ParamValue> WithUnknowns(std::vector<ParamValue> values, const std::vector<double>& z,
+                                     const Template& tmpl) {
+  for (size_t i = 0; i < z.size() && i < tmpl.states.size(); ++i) {
+    SetValue(&values, tmpl.states[i].init_param, z[i]);
+  }
+  if (z.size() > tmpl.states.size()) SetValue(&values, tmpl.regulation.param, z.back());
   return values;
 }
 
-// What the steady-state search did, as the point result records it.
+// What the steady-state search did, as the point result records it: the
+// settled state and (regulated) the control, as the parameters that
+// reproduce the settled period.
 void RecordSettling(const SteadyStateResult& ss, const Template& tmpl, SettleRecord* out) {
   SettleMethodFromName(ss.method, &out->method);
   out->iterations = ss.iterations;
@@ -112,6 +121,37 @@ void RecordSettling(const SteadyStateResult& ss, const Template& tmpl, SettleRec
   for (size_t i = 0; i < tmpl.states.size() && i < ss.state.size(); ++i) {
     out->initial_state.push_back({tmpl.states[i].init_param, ss.state[i]});
   }
+  if (!std::isnan(ss.control)) out->initial_state.push_back({tmpl.regulation.param, ss.control});
+}
+
+// Regulation tolerance: the average within 1e-4 of the set point, ten times
+// inside the 0.1 % a designer reads as "at the set point" (common practice).
+constexpr double kRegulationTolerance = 1e-4;
+
+// The control unknown of a regulated point: false (open loop) when the
+// template declares no control or the sweep asks for open loop.
+bool RegulatedControl(const Template& tmpl, const SimulationSettings& sim,
+                      const Variables& params, ControlUnknown* out) {
+  const RegulationSpec& r = tmpl.regulation;
+  if (!r.declared() || sim.loop == SimulationSettings::Loop::kOpen) return false;  // RunsRegulated
+  out->vector = r.vector;
+  out->target = params.at(r.target);
+  out->min = r.min;
+  out->max = r.max;
+  out->initial = std::min(r.max, std::max(r.min, params.at(r.param)));
+  out->tolerance = kRegulationTolerance;
+  return true;
+}
+
+// The loop the point ran in, for its operating-point record.
+LoopSetting LoopOf(const Template& tmpl, const Variables& params, const SteadyStateResult& ss) {
+  LoopSetting s;
+  const RegulationSpec& r = tmpl.regulation;
+  if (!r.declared()) return s;
+  s.loop = std::isnan(ss.control) ? LoopKind::kOpen : LoopKind::kRegulated;
+  s.control = s.loop == LoopKind::kRegulated ? ss.control : params.at(r.param);
+  s.set_point = params.at(r.target);
+  return s;
 }
 
 // The steady-state search as the sweep's <simulation> sets it.
@@ -217,7 +257,7 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
                     std::string* why) {
     Variables r;
     Diagnostic d;
-    if (!ResolveParams(tmpl_, WithInitialState(point.values, x, tmpl_), &r, &d)) {
+    if (!ResolveParams(tmpl_, WithUnknowns(point.values, x, tmpl_), &r, &d)) {
       *why = d.Format();
       return false;
     }
@@ -229,8 +269,12 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     return true;
   };
   SteadyStateOptions options = SettleOptions(sim);
-  SteadyStateResult ss = FindPeriodicSteadyState(simulator, render, vectors, states, period,
-                                                 options);
+  ControlUnknown control;
+  const bool regulated = RegulatedControl(tmpl_, sim, ev->params, &control);
+  SteadyStateResult ss =
+      regulated ? FindRegulatedSteadyState(simulator, render, vectors, states, control, period,
+                                           options)
+                : FindPeriodicSteadyState(simulator, render, vectors, states, period, options);
   RecordSettling(ss, tmpl_, &result.settle);
   if (!ss.ok) {
     result.reason = "while settling: " + MapEngineLines(ss.error, last_deck);
@@ -242,17 +286,24 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     result.status = PointStatus::kUnsettled;
     result.reason = "not settled after " + std::to_string(ss.periods) + " periods: residual " +
                     FormatNumber(ss.residual) + " > tolerance " + FormatNumber(options.tolerance) +
-                    " (relative to the ripple)";
+                    " (relative to the ripple" +
+                    (regulated ? std::string(", with ") + tmpl_.regulation.param + " held in [" +
+                                     FormatNumber(control.min) + ", " + FormatNumber(control.max) +
+                                     "] to regulate " + control.vector + " at " +
+                                     FormatNumber(control.target)
+                               : std::string()) +
+                    ")";
     return finish();
   }
 
   // The measured run: measure_periods (>= 2) from the settled state.
   int measured = std::max(2, sim.measure_periods);
   std::string why;
-  std::vector<double> x = ss.state;
+  std::vector<double> x = SettledUnknowns(ss);
   simulator.SetMeasuring(true);
-  SimulationOutput out =
-      RunFromState(simulator, render, vectors, states, period, measured, -1, &x, &why);
+  SimulationOutput out = RunFromState(simulator, render, vectors,
+                                      SearchUnknowns(states, regulated ? &control : nullptr),
+                                      period, measured, -1, &x, &why);
   result.settle.periods += measured;
   if (!out.ok) {
     result.reason = why.empty() ? MapEngineLines(out.error, last_deck) : why;
@@ -260,7 +311,9 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     return finish();
   }
   if (!MeasureCells(out, ev, &result)) return finish();
-  if (sim.probe) ProbeEdges(point, WithInitialState(point.values, x, tmpl_), simulator, *ev, &result);
+  result.operating = MeasureOperatingPoint(tmpl_, out.waves, (measured - 1) * period,
+                                           measured * period, LoopOf(tmpl_, ev->params, ss));
+  if (sim.probe) ProbeEdges(point, WithUnknowns(point.values, x, tmpl_), simulator, *ev, &result);
   result.status = PointStatus::kOk;
   if (keep_waveforms) ev->settled = std::move(out.waves);
   return finish();

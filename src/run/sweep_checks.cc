@@ -6,6 +6,7 @@
 #include <sstream>
 
 #include "result/edge_metrics.h"
+#include "run/loop_checks.h"
 #include "core/source_text.h"
 #include "core/spice_number.h"
 #include "core/text.h"
@@ -168,6 +169,8 @@ bool CheckSweepUpFront(PreparedSweep* sweep, std::vector<Diagnostic>* errors) {
   std::vector<Diagnostic> names =
       CheckResultNames(sweep->spec, sweep->tmpl, sweep->points, sweep_text);
   found.insert(found.end(), names.begin(), names.end());
+  std::vector<Diagnostic> loop = CheckLoop(sweep->spec, sweep->tmpl, sweep->points);
+  found.insert(found.end(), loop.begin(), loop.end());
   if (found.empty()) {
     // Points are evaluated only when the names are right (else every point
     // would repeat the same problem).

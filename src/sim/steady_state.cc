@@ -22,20 +22,6 @@ struct PeriodRun {
   double regulated_mean = NAN;
 };
 
-// Average of v over [t0, t1] (trapezoids, end points interpolated).
-double PeriodMean(const std::vector<double>& t, const std::vector<double>& v, double t0,
-                  double t1) {
-  double sum = 0, tp = t0, vp = Interpolate(t, v, t0);
-  for (size_t k = 0; k < t.size(); ++k) {
-    if (t[k] <= t0 || t[k] >= t1) continue;
-    sum += 0.5 * (v[k] + vp) * (t[k] - tp);
-    tp = t[k];
-    vp = v[k];
-  }
-  sum += 0.5 * (Interpolate(t, v, t1) + vp) * (t1 - tp);
-  return sum / (t1 - t0);
-}
-
 class Shooter {
  public:
   // `unknowns` are the states, then (with `control`) a pseudo-state for the
@@ -120,7 +106,7 @@ class Shooter {
       out->ripple[i] = hi >= lo ? hi - lo : 0;
     }
     if (control_) {
-      out->regulated_mean = PeriodMean(t, w.Get(control_->vector), t_last, periods * period_);
+      out->regulated_mean = Average(t, w.Get(control_->vector), t_last, periods * period_);
     }
   }
 
@@ -396,10 +382,7 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
                                    const SteadyStateOptions& options) {
   SteadyStateResult r;
   r.ok = true;
-  std::vector<SlowState> unknowns = states;
-  if (control) {
-    unknowns.push_back({control->vector, control->initial, 1e-6 * (control->max - control->min)});
-  }
+  std::vector<SlowState> unknowns = SearchUnknowns(states, control);
   Shooter shooter(simulator, render, vectors, unknowns, states.size(), control, period_s,
                   options, &r);
   std::vector<double> z(unknowns.size());
@@ -464,6 +447,21 @@ SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render
     if (o.ok || o.poisoned || o.error.find("imestep too small") == std::string::npos) break;
   }
   return o;
+}
+
+std::vector<SlowState> SearchUnknowns(const std::vector<SlowState>& states,
+                                      const ControlUnknown* control) {
+  std::vector<SlowState> unknowns = states;
+  if (control) {
+    unknowns.push_back({control->vector, control->initial, 1e-6 * (control->max - control->min)});
+  }
+  return unknowns;
+}
+
+std::vector<double> SettledUnknowns(const SteadyStateResult& r) {
+  std::vector<double> z = r.state;
+  if (!std::isnan(r.control)) z.push_back(r.control);
+  return z;
 }
 
 SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRenderer& render,

@@ -121,6 +121,14 @@ SteadyStateResult FindPeriodicSteadyState(Simulator& simulator, const PeriodRend
                                           const std::vector<SlowState>& states, double period_s,
                                           const SteadyStateOptions& options);
 
+/// The unknowns of a search, as RunFromState takes them: the states, then
+/// (with a control) the control as a pseudo-state (floor 1e-6 of its range).
+std::vector<SlowState> SearchUnknowns(const std::vector<SlowState>& states,
+                                      const ControlUnknown* control);
+
+/// The settled unknowns in the same order: the state, then the control.
+std::vector<double> SettledUnknowns(const SteadyStateResult& r);
+
 /// The same search with `control` as one more unknown and its regulation
 /// equation as one more residual: Newton on F(x, u) = [Phi(x, u) - x ;
 /// mean_T(y) - y_set] with one more finite-difference column (perturb u),

@@ -75,4 +75,16 @@ double Interpolate(const std::vector<double>& t, const std::vector<double>& y, d
   return y[i - 1] + frac * (y[i] - y[i - 1]);
 }
 
+double Average(const std::vector<double>& t, const std::vector<double>& y, double t0, double t1) {
+  double sum = 0, tp = t0, yp = Interpolate(t, y, t0);
+  for (size_t k = 0; k < t.size(); ++k) {
+    if (t[k] <= t0 || t[k] >= t1) continue;
+    sum += 0.5 * (y[k] + yp) * (t[k] - tp);
+    tp = t[k];
+    yp = y[k];
+  }
+  sum += 0.5 * (Interpolate(t, y, t1) + yp) * (t1 - tp);
+  return sum / (t1 - t0);
+}
+
 }  // namespace zvsmap

@@ -49,4 +49,8 @@ class Waveforms {
 /// (right-continuous). Throws Error when t is empty or sizes differ.
 double Interpolate(const std::vector<double>& t, const std::vector<double>& y, double x);
 
+/// The average of samples (t, y) over [t0, t1] (t0 < t1): trapezoids between
+/// the samples inside, the end points interpolated (Interpolate).
+double Average(const std::vector<double>& t, const std::vector<double>& y, double t0, double t1);
+
 }  // namespace zvsmap

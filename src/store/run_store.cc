@@ -29,7 +29,11 @@ constexpr const char* kSchema =
     " ord INTEGER NOT NULL, metric TEXT NOT NULL, tag TEXT NOT NULL, predicted, difference,"
     " relative_difference, beyond_tolerance, PRIMARY KEY(point, edge, ord));"
     "CREATE TABLE IF NOT EXISTS settled_states(point INTEGER NOT NULL, ord INTEGER NOT NULL,"
-    " init_param TEXT NOT NULL, value, PRIMARY KEY(point, ord));";
+    " init_param TEXT NOT NULL, value, PRIMARY KEY(point, ord));"
+    "CREATE TABLE IF NOT EXISTS operating_points(point INTEGER PRIMARY KEY, loop TEXT NOT NULL,"
+    " control, set_point, regulated_avg, p_in_w, p_out_w);"
+    "CREATE TABLE IF NOT EXISTS operating_averages(point INTEGER NOT NULL, ord INTEGER NOT NULL,"
+    " vector TEXT NOT NULL, value, PRIMARY KEY(point, ord));";
 
 // A prepared statement that finalizes itself.
 class Statement {
@@ -195,7 +199,8 @@ std::string RunStore::Where(const std::string& message) const {
 bool RunStore::DeleteAllPoints(std::string* error) {
   std::string why;
   if (!Exec("BEGIN IMMEDIATE; DELETE FROM comparisons; DELETE FROM metrics; DELETE FROM edges; "
-            "DELETE FROM settled_states; DELETE FROM points; COMMIT;",
+            "DELETE FROM settled_states; DELETE FROM operating_points; DELETE FROM operating_averages; "
+            "DELETE FROM points; COMMIT;",
             &why)) {
     std::string ignored;
     Exec("ROLLBACK", &ignored);
@@ -277,6 +282,14 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
     Statement del_e(db_, "DELETE FROM edges WHERE point = ?");
     Statement del_c(db_, "DELETE FROM comparisons WHERE point = ?");
     Statement del_s(db_, "DELETE FROM settled_states WHERE point = ?");
+    Statement del_o(db_, "DELETE FROM operating_points WHERE point = ?");
+    Statement del_a(db_, "DELETE FROM operating_averages WHERE point = ?");
+    del_o.Int(1, idx);
+    del_a.Int(1, idx);
+    if (!del_o.ok() || !del_a.ok() || del_o.Step() != SQLITE_DONE ||
+        del_a.Step() != SQLITE_DONE) {
+      return fail("delete");
+    }
     del_m.Int(1, idx);
     del_e.Int(1, idx);
     del_c.Int(1, idx);
@@ -316,6 +329,7 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
       state.Double(4, r.settle.initial_state[k].value);
       if (state.Step() != SQLITE_DONE) return fail("insert settled state");
     }
+    if (!SaveOperatingPoint(idx, r.operating)) return fail("insert operating point");
 
     Statement edge(db_,
                    "INSERT INTO edges(point, ord, cell, edge, zvs, criterion) VALUES(?,?,?,?,?,?)");
@@ -358,6 +372,59 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
     return false;
   }
   return true;
+}
+
+bool RunStore::SaveOperatingPoint(long long idx, const OperatingPoint& op) {
+  Statement point(db_,
+                  "INSERT INTO operating_points(point, loop, control, set_point, regulated_avg,"
+                  " p_in_w, p_out_w) VALUES(?,?,?,?,?,?,?)");
+  Statement average(db_,
+                    "INSERT INTO operating_averages(point, ord, vector, value) VALUES(?,?,?,?)");
+  if (!point.ok() || !average.ok()) return false;
+  point.Int(1, idx);
+  point.Text(2, LoopKindName(op.loop));
+  int column = 3;
+  for (double v : {op.control, op.set_point, op.regulated_avg, op.p_in_w, op.p_out_w}) {
+    point.Double(column++, v);
+  }
+  if (point.Step() != SQLITE_DONE) return false;
+  for (size_t k = 0; k < op.averages.size(); ++k) {
+    average.Reset();
+    average.Int(1, idx);
+    average.Int(2, static_cast<long long>(k));
+    average.Text(3, op.averages[k].vector);
+    average.Double(4, op.averages[k].value);
+    if (average.Step() != SQLITE_DONE) return false;
+  }
+  return true;
+}
+
+bool RunStore::LoadOperatingPoints(std::map<size_t, PointResult>* out) {
+  Statement points(db_,
+                   "SELECT point, loop, control, set_point, regulated_avg, p_in_w, p_out_w"
+                   " FROM operating_points");
+  Statement averages(db_,
+                     "SELECT point, vector, value FROM operating_averages ORDER BY point, ord");
+  if (!points.ok() || !averages.ok()) return false;
+  int rc;
+  while ((rc = points.Step()) == SQLITE_ROW) {
+    auto it = out->find(static_cast<size_t>(points.ColInt(0)));
+    if (it == out->end()) continue;
+    OperatingPoint& op = it->second.operating;
+    LoopKindFromName(points.ColText(1), &op.loop);
+    int column = 2;
+    for (double* v : {&op.control, &op.set_point, &op.regulated_avg, &op.p_in_w, &op.p_out_w}) {
+      *v = points.ColDouble(column++);
+    }
+  }
+  if (rc != SQLITE_DONE) return false;
+  while ((rc = averages.Step()) == SQLITE_ROW) {
+    auto it = out->find(static_cast<size_t>(averages.ColInt(0)));
+    if (it != out->end()) {
+      it->second.operating.averages.push_back({averages.ColText(1), averages.ColDouble(2)});
+    }
+  }
+  return rc == SQLITE_DONE;
 }
 
 bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* error) {
@@ -429,6 +496,7 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
     it->second.edges[e].comparisons.push_back(ReadComparison(comparisons, 2));
   }
   if (rc != SQLITE_DONE) return fail();
+  if (!LoadOperatingPoints(out)) return fail();
   return true;
 }
 

@@ -71,6 +71,10 @@ class RunStore {
   std::string Where(const std::string& message) const;
   /// Adds columns newer than the store file (solver_aid); false with the reason on failure.
   bool AddMissingColumns(std::string* error);
+  /// The operating_points and operating_averages rows of one point (inside
+  /// SaveResult's transaction) and of every loaded point.
+  bool SaveOperatingPoint(long long idx, const OperatingPoint& op);
+  bool LoadOperatingPoints(std::map<size_t, PointResult>* out);
   sqlite3* db_;
   std::string path_;
 };

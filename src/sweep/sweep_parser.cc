@@ -469,7 +469,7 @@ bool Parser::ParseDerive(pugi::xml_node node) {
 bool Parser::ParseSimulation(pugi::xml_node node) {
   if (!Once(node) || !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol",
                                         "timeout", "settle", "settle-tolerance", "max-newton",
-                                        "max-periods", "solver-aid", "probe"})) {
+                                        "max-periods", "solver-aid", "probe", "loop"})) {
     return false;
   }
   SimulationSettings& s = spec_->simulation;
@@ -555,6 +555,13 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
       return FailAttr(node, "probe", "'probe' must be 'on' or 'off', got '" + probe + "'");
     }
     s.probe = probe == "on";
+  }
+  if (node.attribute("loop")) {
+    std::string loop = node.attribute("loop").value();
+    if (loop != "regulated" && loop != "open") {
+      return FailAttr(node, "loop", "'loop' must be 'regulated' or 'open', got '" + loop + "'");
+    }
+    s.loop = loop == "open" ? SimulationSettings::Loop::kOpen : SimulationSettings::Loop::kRegulated;
   }
   // Checked against the aid names in PrepareSweep (run/, which sees sim/).
   if (node.attribute("solver-aid")) s.solver_aid = node.attribute("solver-aid").value();

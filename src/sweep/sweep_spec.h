@@ -74,6 +74,12 @@ struct SimulationSettings {
   /// from the settled state with the incoming turn-on withheld, giving the
   /// dead-time window (analysis/dead_time_window.h).
   bool probe = true;
+  /// The loop (`loop="regulated"` or "open"): regulated holds the template's
+  /// `*@ regulate` quantity at its set point by solving for its `*@ control`
+  /// parameter (sim/steady_state.h); open keeps the control's own value.
+  /// kDefault = regulated when the template declares a control, else open.
+  enum class Loop { kDefault, kOpen, kRegulated };
+  Loop loop = Loop::kDefault;
   SourceLocation where;
 };
 
