@@ -48,6 +48,45 @@ std::vector<std::string> ValueColumns(const std::vector<PointResult>& results) {
   return metrics;
 }
 
+// The operating-point columns: the slow states' averages named by vector,
+// the union over all results in order of first appearance.
+struct OperatingColumns {
+  bool any = false;
+  std::vector<std::string> averages;
+};
+
+OperatingColumns OperatingColumnsOf(const std::vector<PointResult>& results) {
+  OperatingColumns c;
+  for (const auto& r : results) {
+    if (r.operating.loop == LoopKind::kNotSettled) continue;
+    c.any = true;
+    for (const auto& a : r.operating.averages) AddColumn(a.vector, &c.averages);
+  }
+  return c;
+}
+
+void WriteOperatingHeader(std::ostream& out, const OperatingColumns& c) {
+  if (!c.any) return;
+  out << ",loop,control_value,regulated_avg,set_point";
+  for (const auto& v : c.averages) out << ',' << CsvField("avg_" + v);
+  out << ",p_in_w,p_out_w,efficiency";
+}
+
+void WriteOperatingFields(std::ostream& out, const OperatingColumns& c, const OperatingPoint& op) {
+  if (!c.any) return;
+  out << ',' << LoopKindName(op.loop) << ',' << CsvNumber(op.control) << ','
+      << CsvNumber(op.regulated_avg) << ',' << CsvNumber(op.set_point);
+  for (const auto& v : c.averages) {
+    double value = std::nan("");
+    for (const auto& a : op.averages) {
+      if (a.vector == v) value = a.value;
+    }
+    out << ',' << CsvNumber(value);
+  }
+  out << ',' << CsvNumber(op.p_in_w) << ',' << CsvNumber(op.p_out_w) << ','
+      << CsvNumber(op.Efficiency());
+}
+
 }  // namespace
 
 void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
@@ -57,6 +96,7 @@ void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
     for (const auto& v : points.front().values) params.push_back(v.name);
   }
   std::vector<std::string> metrics = ValueColumns(results);
+  const OperatingColumns operating = OperatingColumnsOf(results);
 
   // "\r\n" line ends, as RFC 4180 specifies.
   const char* eol = "\r\n";
@@ -74,6 +114,7 @@ void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
   for (const auto& r : roles) out << ',' << CsvField(r);
   out << ",cell,edge,zvs_class";
   for (const auto& m : metrics) out << ',' << CsvField(m);
+  WriteOperatingHeader(out, operating);
   out << ",status,reason,solver_aid,wall_time_s" << eol;
 
   for (size_t i = 0; i < points.size() && i < results.size(); ++i) {
@@ -91,6 +132,7 @@ void WriteEdgesCsv(std::ostream& out, const std::vector<Point>& points,
       }
     };
     auto suffix = [&] {
+      WriteOperatingFields(out, operating, r.operating);
       out << ',' << PointStatusName(r.status) << ',' << CsvField(r.reason) << ','
           << CsvField(r.solver_aid) << ',' << CsvNumber(r.wall_s) << eol;
     };

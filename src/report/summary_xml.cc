@@ -257,6 +257,58 @@ void AddRefinement(pugi::xml_node root, const ReportBasis& input) {
   }
 }
 
+// Sets attribute `name` when `value` is a number.
+void SetNumber(pugi::xml_node node, const char* name, double value) {
+  if (!std::isnan(value)) node.append_attribute(name) = XmlNumber(value).c_str();
+}
+
+// The settled operating point of every point that has one, and over all of
+// them the loop, the worst regulation error and the efficiency range.
+void AddOperatingPoints(pugi::xml_node root, const ReportBasis& input) {
+  const RegulationSpec& reg = input.tmpl.regulation;
+  double worst = 0, eta_min = NAN, eta_max = NAN;
+  std::vector<size_t> settled;
+  for (size_t i = 0; i < input.results.size() && i < input.points.size(); ++i) {
+    const OperatingPoint& op = input.results[i].operating;
+    if (op.loop == LoopKind::kNotSettled) continue;
+    settled.push_back(i);
+    double e = op.RegulationError();
+    if (std::fabs(e) > std::fabs(worst)) worst = e;
+    double eta = op.Efficiency();
+    if (!std::isnan(eta)) {
+      eta_min = std::isnan(eta_min) ? eta : std::min(eta_min, eta);
+      eta_max = std::isnan(eta_max) ? eta : std::max(eta_max, eta);
+    }
+  }
+  if (settled.empty()) return;
+  pugi::xml_node node = root.append_child("operating-points");
+  node.append_attribute("loop") = LoopKindName(input.results[settled[0]].operating.loop);
+  if (reg.declared()) {
+    node.append_attribute("control") = reg.param.c_str();
+    node.append_attribute("regulated") = reg.vector.c_str();
+    node.append_attribute("set-point") = reg.target.c_str();
+    SetNumber(node, "worst-regulation-error", worst);
+  }
+  SetNumber(node, "efficiency-min", eta_min);
+  SetNumber(node, "efficiency-max", eta_max);
+  for (size_t i : settled) {
+    const OperatingPoint& op = input.results[i].operating;
+    pugi::xml_node p = node.append_child("point");
+    p.append_attribute("index") = PointNumber(input, i);
+    SetNumber(p, "control", op.control);
+    SetNumber(p, "regulated-avg", op.regulated_avg);
+    SetNumber(p, "set-point", op.set_point);
+    SetNumber(p, "p-in-w", op.p_in_w);
+    SetNumber(p, "p-out-w", op.p_out_w);
+    SetNumber(p, "efficiency", op.Efficiency());
+    for (const VectorAverage& a : op.averages) {
+      pugi::xml_node av = p.append_child("average");
+      av.append_attribute("vector") = a.vector.c_str();
+      av.append_attribute("value") = XmlNumber(a.value).c_str();
+    }
+  }
+}
+
 }  // namespace
 
 void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerdict>& verdicts,
@@ -301,6 +353,7 @@ void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerd
   }
 
   AddRefinement(root, input);
+  AddOperatingPoints(root, input);
 
   const MarginSource& margin = input.margin;
   pugi::xml_node m = root.append_child("margin");
