@@ -154,6 +154,9 @@ LoopSetting LoopOf(const Template& tmpl, const Variables& params, const SteadySt
   return s;
 }
 
+// The periods of the measured run: measure_periods, at least 2.
+int MeasuredPeriods(const SimulationSettings& sim) { return std::max(2, sim.measure_periods); }
+
 // The steady-state search as the sweep's <simulation> sets it.
 SteadyStateOptions SettleOptions(const SimulationSettings& sim) {
   SteadyStateOptions options;
@@ -269,6 +272,7 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     return true;
   };
   SteadyStateOptions options = SettleOptions(sim);
+  if (simulator.SettlesAsItMeasures()) options.trial_periods = MeasuredPeriods(sim);
   ControlUnknown control;
   const bool regulated = RegulatedControl(tmpl_, sim, ev->params, &control);
   SteadyStateResult ss =
@@ -296,15 +300,19 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     return finish();
   }
 
-  // The measured run: measure_periods (>= 2) from the settled state.
-  int measured = std::max(2, sim.measure_periods);
+  // The measured run: measure_periods (>= 2) from the settled state; the
+  // Newton run that verified the settled state is that run when it settled so.
+  const int measured = MeasuredPeriods(sim);
   std::string why;
   std::vector<double> x = SettledUnknowns(ss);
-  simulator.SetMeasuring(true);
-  SimulationOutput out = RunFromState(simulator, render, vectors,
-                                      SearchUnknowns(states, regulated ? &control : nullptr),
-                                      period, measured, -1, &x, &why);
-  result.settle.periods += measured;
+  SimulationOutput out = std::move(ss.final_run);
+  if (!out.ok) {
+    simulator.SetMeasuring(true);
+    out = RunFromState(simulator, render, vectors,
+                       SearchUnknowns(states, regulated ? &control : nullptr), period, measured,
+                       -1, &x, &why);
+    result.settle.periods += measured;
+  }
   if (!out.ok) {
     result.reason = why.empty() ? MapEngineLines(out.error, last_deck) : why;
     result.log = MapEngineLog(out.log, last_deck);

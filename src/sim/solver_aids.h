@@ -73,6 +73,12 @@ class AidedSimulator : public Simulator {
       : inner_(inner), aid_(aid), reltol_(reltol) {}
   /// From here on the runs are the measuring run (requested reltol).
   void SetMeasuring(bool measuring) { measuring_ = measuring; }
+  /// True when a settling run is the same run as a measuring one (no aid, or
+  /// one that does not relax the settling runs), so a settled run can be the
+  /// measured run.
+  bool SettlesAsItMeasures() const {
+    return aid_ == nullptr || !(aid_->settle_reltol_factor > 1);
+  }
   /// True once a run returned `poisoned`.
   bool poisoned() const { return poisoned_; }
   SimulationOutput Run(const std::string& netlist, const std::vector<std::string>& vectors,

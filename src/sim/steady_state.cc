@@ -20,7 +20,13 @@ struct PeriodRun {
   std::vector<std::vector<double>> boundary;  // [k-1][state]
   std::vector<double> ripple;
   double regulated_mean = NAN;
+  SimulationOutput output;  // the run itself, when kept (a Newton trial run)
 };
+
+// What a run reads its ripple and regulated mean over, and whether it keeps
+// its output: a Newton trial run (first period, kept: when it settles it is
+// the measured run) or a period-by-period chunk (last period, not kept).
+enum class RunUse { kNewtonTrial, kChunk };
 
 class Shooter {
  public:
@@ -34,7 +40,8 @@ class Shooter {
 
   // Simulates `periods` from *z (possibly nudged, see RunFromState). False
   // (result filled) when a run fails or the period budget is spent.
-  bool Run(std::vector<double>* z, int periods, PeriodRun* out, int nudge = -1) {
+  bool Run(std::vector<double>* z, int periods, PeriodRun* out, int nudge = -1,
+           RunUse use = RunUse::kChunk) {
     if (r_->periods + periods > opt_.max_periods) {
       budget_spent_ = true;
       return false;
@@ -49,7 +56,8 @@ class Shooter {
       r_->log = o.log;
       return false;
     }
-    Read(o.waves, periods, out);
+    Read(o.waves, periods, use == RunUse::kNewtonTrial ? 0 : periods - 1, out);
+    if (use == RunUse::kNewtonTrial) out->output = std::move(o);
     return true;
   }
 
@@ -89,24 +97,25 @@ class Shooter {
   size_t states() const { return n_; }
 
  private:
-  void Read(const Waveforms& w, int periods, PeriodRun* out) const {
+  // The boundaries, and the ripple and regulated mean over period `stats`.
+  void Read(const Waveforms& w, int periods, int stats, PeriodRun* out) const {
     const auto& t = w.time();
     out->boundary.assign(periods, std::vector<double>(n_));
     out->ripple.assign(n_, 0);
-    double t_last = (periods - 1) * period_;
+    const double t_last = stats * period_, t_end = (stats + 1) * period_;
     for (size_t i = 0; i < n_; ++i) {
       const auto& v = w.Get(unknowns_[i].vector);
       for (int k = 1; k <= periods; ++k) out->boundary[k - 1][i] = Interpolate(t, v, k * period_);
       double lo = HUGE_VAL, hi = -HUGE_VAL;
       for (size_t j = 0; j < t.size(); ++j) {
-        if (t[j] < t_last || t[j] > periods * period_) continue;
+        if (t[j] < t_last || t[j] > t_end) continue;
         lo = std::min(lo, v[j]);
         hi = std::max(hi, v[j]);
       }
       out->ripple[i] = hi >= lo ? hi - lo : 0;
     }
     if (control_) {
-      out->regulated_mean = Average(t, w.Get(control_->vector), t_last, periods * period_);
+      out->regulated_mean = Average(t, w.Get(control_->vector), t_last, t_end);
     }
   }
 
@@ -272,7 +281,10 @@ bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowS
       Iterate next;
       next.z = at.z;
       for (size_t i = 0; i < dz.size(); ++i) next.z[i] += lambda * dz[i];
-      if (!shooter.Run(&next.z, 1, &next.run)) return false;
+      if (!shooter.Run(&next.z, std::max(1, options.trial_periods), &next.run, -1,
+                       RunUse::kNewtonTrial)) {
+        return false;
+      }
       shooter.System(next.z, next.run, &next.f);
       next.residual = shooter.SystemResidual(next.f, next.run);
       if (next.residual < at.residual || tries == 3) {
@@ -413,6 +425,7 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
     r.method = "shooting";
     if (!Newton(shooter, z, unknowns, control, options, &r, &best) && !r.ok) return r;
     if (best.residual <= options.tolerance) {
+      r.final_run = std::move(best.run.output);
       return finish(best.z, best.run.ripple, best.residual, best.run.regulated_mean, true);
     }
   }

@@ -51,7 +51,7 @@ SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render
 
 /// A control parameter that the solve adjusts, as one more unknown, so that
 /// the period average of `vector` equals `target` (a regulated converter in
-/// steady state: shooting with a parameter unknown, ../shared/REFERENCES.md
+/// steady state: shooting with a parameter unknown, netlists/references.md
 /// sec. 9). The renderer receives the control value as the last entry of x.
 struct ControlUnknown {
   std::string vector;       ///< the regulated vector, lower-case, e.g. "v(out)"
@@ -80,6 +80,12 @@ struct SteadyStateOptions {
   /// decay of the cycle-to-cycle change over the last 2 * `window`
   /// boundaries (geometric series), is within the tolerance too.
   int window = 20;
+  /// Length of each Newton trial run (the run at a Newton step), in periods.
+  /// The step's residual is read from its first period; when the step
+  /// settles, the whole run is handed back as SteadyStateResult::final_run,
+  /// so a caller that measures `trial_periods` periods from the settled state
+  /// has its measured run already (the run that verifies is the one measured).
+  int trial_periods = 1;
 };
 
 /// The outcome. `ok` false means a simulation failed (error/log say why);
@@ -103,6 +109,10 @@ struct SteadyStateResult {
   /// average over the last simulated period (NaN without one).
   double control = NAN;
   double regulated_mean = NAN;
+  /// When a Newton trial run settled: that run, `trial_periods` periods from
+  /// `state` (and `control`); its periods are counted in `periods`. Not ok
+  /// (empty) when the search settled otherwise (initial state, period by period).
+  SimulationOutput final_run;
 };
 
 /// Finds the periodic steady state. `vectors` are the names to ask the

@@ -84,8 +84,8 @@ TEST_F(TemplateTest, MalformedParamAndUnknownAnnotation) {
   EXPECT_EQ(error_.Format(), "t.cir:2: unclosed '{' in .param fsw");
   ASSERT_FALSE(Parse("t\n*@ perod 1\n"));
   EXPECT_EQ(error_.Format(),
-            "t.cir:2: unknown annotation '*@ perod' (known: period, cell, state, model, control, regulate, "
-            "power)");
+            "t.cir:2: unknown annotation '*@ perod' (known: period, cell, state, model, control, "
+            "regulate, power)");
   ASSERT_FALSE(Parse("t\n.param a=1\n.param A=2\n"));
   EXPECT_EQ(error_.Format(), "t.cir:3: .param 'a' declared twice");
 }

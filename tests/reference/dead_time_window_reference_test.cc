@@ -131,21 +131,22 @@ TEST(DeadTimeWindowReferenceTest, LinearCossWindowEndsMatchTheResonantArc) {
 // The shipped buck template (netlists/buck_halfbridge.cir; 48 -> 12 V, 500 kHz,
 // 1 uH, linear 1 nF switches, 5 A: valley current about -4 A), the default
 // criterion (10 % of the rail). The class must agree at >= 95 % of the
-// swept points (issue 15 item 5). Runs open loop: `loop="open"` (issue 15
-// item 1) is not in this branch; once the solve is regulated by default the
-// same test checks the regulated point.
+// swept points (issue 15 item 5). Runs regulated (the template's default
+// loop): every brute-force point settles at v(out) = Vout with its own duty,
+// as a closed-loop converter would (70 of 70 agreed when written; open loop,
+// 69 of 70).
 //
 // Where the two can disagree, and why (common practice, no source): the
 // probe predicts from ONE settled state, while each brute-force point settles
 // again with its own dead time. While the node sits clamped at the rail (the
 // window), a longer dead time changes nothing (the node is where the turn-on
 // would put it), so inside the window they agree by construction (causality).
-// Past the ring-back the node falls back during the dead time, the switch
-// node's average drops, and an open-loop converter settles at a lower output
-// voltage and a different valley current: the partial/hard boundary of the
-// brute-force sweep moves against the prediction by a few ns (one or two
-// 5 ns points). A point closer to a class boundary than the data's step
-// (1 ns) can also fall either way.
+// Past the ring-back the node falls back during the dead time and the switch
+// node's average drops: the regulated solve raises the duty to hold Vout, the
+// valley current stays close, and the prediction holds. Open loop the
+// converter would settle at a lower output and another valley current, and the
+// partial/hard boundary moved by one 5 ns point. A point closer to a class
+// boundary than the data's step (1 ns) can still fall either way.
 TEST(DeadTimeWindowReferenceTest, ProbeClassPredictionAgreesWithBruteForce) {
   const Template& tmpl = LoadOnce("netlists/buck_halfbridge.cir");
   SweepSpec spec;

@@ -2,7 +2,7 @@
 // buck template (netlists/buck_halfbridge.cir, invented values):
 //  - the regulated output's period average within 0.1 % of the set point;
 //  - the duty the solve finds against the volt-second balance of the lossy
-//    synchronous buck with dead times (../shared/REFERENCES.md sec. 9,
+//    synchronous buck with dead times (netlists/references.md sec. 9,
 //    derived there; the same balance with losses: Erickson & Maksimovic,
 //    "Fundamentals of Power Electronics", 2nd ed., 2001, ch. 3), for both
 //    signs of the current during the high-side dead time, within 1 %.

@@ -106,6 +106,28 @@ TEST(SteadyStateTest, ShootingSolvesAnAffineMapInOneNewtonStep) {
   EXPECT_NEAR(r.ripple[0], 0.5, 0.05);  // the sine bump over the period
 }
 
+// With trial runs as long as the measured run, the Newton run that settled is
+// handed back whole: it starts at the settled state and spans those periods.
+TEST(SteadyStateTest, TheSettlingTrialRunIsHandedBackAsTheMeasuredRun) {
+  AffineMapSimulator sim;
+  SteadyStateOptions options;
+  options.trial_periods = 2;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  EXPECT_EQ(r.iterations, 1);
+  EXPECT_EQ(r.periods, 5);  // 1 base run + 2 Jacobian runs + the 2-period trial run
+  ASSERT_TRUE(r.final_run.ok);
+  const Waveforms& w = r.final_run.waves;
+  EXPECT_NEAR(w.time().back(), (2 + kPeriodOverrun) * 1e-6, 1e-12);
+  double fixed[2];
+  sim.FixedPoint(fixed);
+  // The fixed point repeats at both period boundaries of the run.
+  EXPECT_NEAR(w.At("i(l1)", 1e-6), fixed[0], 1e-9);
+  EXPECT_NEAR(w.At("i(l1)", 2e-6), fixed[0], 1e-9);
+  EXPECT_NEAR(r.ripple[0], 0.5, 0.05);  // read over the run's first period
+}
+
 TEST(SteadyStateTest, PeriodByPeriodReachesTheSameFixedPoint) {
   AffineMapSimulator sim;
   SteadyStateOptions options;
