@@ -26,8 +26,11 @@
 //
 // With --stages it instead splits zvsmap's per-point time into stages (see
 // bench_stages.cc). Output: one line per point, then "RESULT key value" lines.
+// With --steps B1,B2,... it instead compares step bounds (seconds; 0 is
+// TranFor's own policy) against zvsmap's evaluation at --ref-step (default
+// 0.5e-9), see RunStepComparison.
 // Usage: zvsmap_bench_point SWEEP [--ref REF] [--tol TOL] [--stages]
-//                           [--first K] [--count N]
+//                           [--steps B1,B2,... [--ref-step R]] [--first K] [--count N]
 #include <algorithm>
 #include <chrono>
 #include <cmath>
@@ -256,18 +259,73 @@ PointRecord EvaluatePoint(const PreparedSweep& s, const Point& p, Simulator& sim
 
 void Result(const char* key, double value) { std::printf("RESULT %s %.6g\n", key, value); }
 
+// Step-policy comparison (--steps): every point evaluated as zvsmap does
+// (PointEvaluator::Evaluate) once per step bound in `steps` (0: TranFor's own
+// policy) and once at `ref_step` as the reference; per bound the wall time,
+// the engine's time points per simulated period and the accuracy against the
+// reference (RelError). Prints "RESULT step<k>_..." lines, k = index in `steps`.
+int RunStepComparison(const PreparedSweep& s, const std::vector<double>& steps, double ref_step) {
+  NgspiceSimulator sim;
+  auto with_step = [&](double step) {
+    SweepSpec spec = s.spec;
+    spec.simulation.max_step_s = step;
+    return spec;
+  };
+  SweepSpec ref_spec = with_step(ref_step);
+  std::vector<SweepSpec> specs;
+  for (double step : steps) specs.push_back(with_step(step));
+  std::vector<std::vector<double>> err(steps.size()), wall(steps.size());
+  std::vector<long> samples(steps.size(), 0), periods(steps.size(), 0);
+  for (const Point& p : s.points) {
+    PointResult ref = PointEvaluator(ref_spec, s.tmpl).Evaluate(p, sim);
+    if (ref.status != PointStatus::kOk) {
+      std::printf("point %zu: reference failed: %s\n", p.index, ref.reason.c_str());
+      continue;
+    }
+    std::printf("point %zu %s:", p.index, p.Describe().c_str());
+    for (size_t k = 0; k < steps.size(); ++k) {
+      long before = sim.timings().samples;
+      PointResult r = PointEvaluator(specs[k], s.tmpl).Evaluate(p, sim);
+      samples[k] += sim.timings().samples - before;
+      periods[k] += r.settle.periods;
+      wall[k].push_back(r.wall_s);
+      err[k].push_back(r.status == PointStatus::kOk ? RelError(FromEdges(r.edges), FromEdges(ref.edges))
+                                                     : NAN);
+      std::printf(" [%g: %.3f s, err %.4f%%]", steps[k], r.wall_s, 100 * err[k].back());
+    }
+    std::printf("\n");
+    std::fflush(stdout);
+  }
+  Result("ref_step", ref_step);
+  for (size_t k = 0; k < steps.size(); ++k) {
+    std::string key = "step" + std::to_string(k) + "_";
+    double total = 0;
+    for (double w : wall[k]) total += w;
+    Result((key + "bound").c_str(), steps[k]);
+    Result((key + "wall").c_str(), total);
+    Result((key + "samples_per_period").c_str(),
+           periods[k] ? double(samples[k]) / double(periods[k]) : NAN);
+    Result((key + "err_median").c_str(), Median(err[k]));
+    Result((key + "err_max").c_str(), Max(err[k]));
+  }
+  return 0;
+}
+
 }  // namespace
 
 int main(int argc, char** argv) {
   if (argc < 2) {
     std::fprintf(stderr,
-                 "usage: %s SWEEP [--ref REF] [--tol TOL] [--stages] [--first K] [--count N]\n",
+                 "usage: %s SWEEP [--ref REF] [--tol TOL] [--stages] [--steps B1,B2,... [--ref-step R]]\n"
+                 "       [--first K] [--count N]\n",
                  argv[0]);
     return 2;
   }
   int ref = 1000;
   double tol = 0.005;
   bool stages = false;
+  std::vector<double> steps;
+  double ref_step = 0.5e-9;
   size_t first = 0, count = SIZE_MAX;
   for (int i = 2; i < argc; ++i) {
     if (!std::strcmp(argv[i], "--ref") && i + 1 < argc)
@@ -276,6 +334,13 @@ int main(int argc, char** argv) {
       tol = std::atof(argv[++i]);
     else if (!std::strcmp(argv[i], "--stages"))
       stages = true;
+    else if (!std::strcmp(argv[i], "--steps") && i + 1 < argc)
+      for (char* at = argv[++i]; *at;) {
+        steps.push_back(std::strtod(at, &at));
+        if (*at == ',') ++at;
+      }
+    else if (!std::strcmp(argv[i], "--ref-step") && i + 1 < argc)
+      ref_step = std::atof(argv[++i]);
     else if (!std::strcmp(argv[i], "--first") && i + 1 < argc)
       first = std::strtoul(argv[++i], nullptr, 10);
     else if (!std::strcmp(argv[i], "--count") && i + 1 < argc)
@@ -296,6 +361,7 @@ int main(int argc, char** argv) {
     s.points = slice;
   }
   if (stages) return RunStageBreakdown(s);
+  if (!steps.empty()) return RunStepComparison(s, steps, ref_step);
   NgspiceSimulator sim;
   const int measured = std::max(2, s.spec.simulation.measure_periods);
   std::vector<PointRecord> recs;

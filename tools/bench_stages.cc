@@ -1,7 +1,6 @@
-// Stage breakdown of a point (bench only; the production pipeline is not
-// instrumented). StagedSimulator runs a netlist in libngspice the way
-// NgspiceSimulator does (load, run, copy the vectors, unload) with a clock
-// around each step. ngspice's setup before the first time step is part of its
+// Stage breakdown of a point (bench only). StagedSimulator runs each netlist
+// through zvsmap's own NgspiceSimulator and reads its stage clocks
+// (EngineTimings: load, run, copy the vectors, unload). ngspice's setup before the first time step is part of its
 // "run" command; it is estimated per run by running the same netlist once
 // more with tstop = one step bound (that extra run is timed apart and left out
 // of the figures). Render is one PointEvaluator::Render timed per run,
@@ -11,11 +10,11 @@
 // parameter resolution).
 #include "bench_stages.h"
 
-#include <ngspice/sharedspice.h>
 #include <unistd.h>
 
 #include <algorithm>
 #include <chrono>
+#include <cstdlib>
 #include <cstdio>
 #include <memory>
 #include <sstream>
@@ -26,7 +25,7 @@
 #include "analysis/edge_finder.h"
 #include "handcalc/hand_calculation.h"
 #include "run/point_evaluator.h"
-#include "sim/simulator.h"
+#include "sim/ngspice_simulator.h"
 #include "store/run_store.h"
 
 using namespace zvsmap;
@@ -38,86 +37,56 @@ double Since(Clock::time_point t0) {
   return std::chrono::duration<double>(Clock::now() - t0).count();
 }
 
-int Quiet(char*, int, void*) { return 0; }
-int QuietExit(int, NG_BOOL, NG_BOOL, int, void*) { return 0; }
-void Command(const char* c) { ngSpice_Command(const_cast<char*>(c)); }
-
 struct Stages {
   double load = 0, setup = 0, stepping = 0, copy = 0, unload = 0, extra = 0;
   int runs = 0;
+  long samples = 0;
 };
 
+// zvsmap's own NgspiceSimulator, its stage clocks (EngineTimings) read after
+// each run, plus one extra run per run to estimate the setup.
 class StagedSimulator : public Simulator {
  public:
-  StagedSimulator() { ngSpice_Init(Quiet, Quiet, QuietExit, nullptr, nullptr, nullptr, nullptr); }
   Stages stages;
 
   SimulationOutput Run(const std::string& netlist, const std::vector<std::string>& vectors,
                        double tstop_s) override {
-    SimulationOutput out;
+    EngineTimings before = engine_.timings();
+    SimulationOutput out = engine_.Run(netlist, vectors, tstop_s);
+    EngineTimings after = engine_.timings();
     ++stages.runs;
-    double run_s = 0;
-    Once(netlist, vectors, &out, &stages.load, &run_s, &stages.copy, &stages.unload);
+    stages.samples += after.samples - before.samples;
+    stages.load += after.load_s - before.load_s;
+    stages.copy += after.copy_s - before.copy_s;
+    stages.unload += after.unload_s - before.unload_s;
+    double run_s = after.run_s - before.run_s;
     // Setup estimate: the same circuit with tstop at its first step bound.
     auto t0 = Clock::now();
-    double setup = 0, ignored = 0;
-    SimulationOutput tiny;
-    Once(Shortened(netlist), {}, &tiny, &ignored, &setup, &ignored, &ignored);
+    double step = 0;
+    std::string shortened = Shortened(netlist, &step);
+    engine_.Run(shortened, {}, step);
+    double setup = std::min(engine_.timings().run_s - after.run_s, run_s);
     stages.extra += Since(t0);
-    setup = std::min(setup, run_s);
     stages.setup += setup;
     stages.stepping += run_s - setup;
-    const auto& t = out.waves.time();
-    out.ok = !t.empty() && t.back() >= tstop_s * (1 - 1e-9);
-    if (!out.ok) out.error = "engine error (bench simulator)";
     return out;
   }
 
  private:
-  static std::string Shortened(const std::string& netlist) {
+  NgspiceSimulator engine_;
+
+  static std::string Shortened(const std::string& netlist, double* step_s) {
     std::istringstream in(netlist);
     std::string line, text;
     while (std::getline(in, line)) {
       if (line.compare(0, 6, ".tran ") == 0) {
         std::string step = line.substr(6, line.find(' ', 6) - 6);
+        *step_s = std::atof(step.c_str());
         line = ".tran " + step + " " + step + " 0 " + step + " uic";
       }
       text += line + "\n";
     }
     return text;
-  }
-
-  static void Once(const std::string& netlist, const std::vector<std::string>& vectors,
-                   SimulationOutput* out, double* load, double* run, double* copy, double* unload) {
-    auto t0 = Clock::now();
-    std::vector<std::string> lines;
-    std::istringstream in(netlist);
-    for (std::string line; std::getline(in, line);) lines.push_back(line);
-    std::vector<char*> ptrs;
-    for (auto& l : lines) ptrs.push_back(&l[0]);
-    ptrs.push_back(nullptr);
-    ngSpice_Circ(ptrs.data());
-    *load += Since(t0);
-    t0 = Clock::now();
-    Command("run");
-    *run += Since(t0);
-    t0 = Clock::now();
-    auto get = [](const std::string& name) {
-      std::vector<double> v;
-      pvector_info info = ngGet_Vec_Info(const_cast<char*>(name.c_str()));
-      if (info && info->v_realdata) v.assign(info->v_realdata, info->v_realdata + info->v_length);
-      return v;
-    };
-    out->waves.SetTime(get("time"));
-    for (const auto& name : vectors) {
-      std::vector<double> v = get(name);
-      if (v.size() == out->waves.time().size()) out->waves.Set(name, std::move(v));
-    }
-    *copy += Since(t0);
-    t0 = Clock::now();
-    Command("remcirc");
-    Command("destroy all");
-    *unload += Since(t0);
   }
 };
 
@@ -181,6 +150,7 @@ int RunStageBreakdown(const PreparedSweep& s) {
   };
   std::printf("RESULT stage_points %d\nRESULT stage_runs %d\nRESULT stage_total_s %.4f\n", ok,
               st.runs, total);
+  std::printf("RESULT stage_samples_per_run %.1f\n", st.runs ? double(st.samples) / st.runs : 0.0);
   frac("render", render);
   frac("load", st.load);
   frac("setup", st.setup);

@@ -5,6 +5,7 @@
 
 #include <algorithm>
 #include <cctype>
+#include <chrono>
 #include <cmath>
 #include <cstddef>
 #include <sstream>
@@ -167,9 +168,50 @@ pvector_info LookUp(const std::string& requested) {
   return nullptr;
 }
 
+// Copies `time` and every asked-for vector out of the current plot (the
+// pointers die with it); returns why it could not, or "".
+std::string CopyVectors(pvector_info time, const std::vector<std::string>& vectors,
+                        Waveforms* waves) {
+  size_t n = static_cast<size_t>(time->v_length);
+  waves->SetTime(std::vector<double>(time->v_realdata, time->v_realdata + n));
+  for (const std::string& name : vectors) {
+    if (Lower(name) == "time") continue;
+    pvector_info info = LookUp(name);
+    if (info == nullptr) {
+      return fmt::format("vector '{}' not found (available: {})", name, AvailableVectors());
+    }
+    if (info->v_realdata == nullptr) {
+      return fmt::format("vector '{}' is complex; only real vectors are supported", name);
+    }
+    if (info->v_length != time->v_length) {
+      return fmt::format("vector '{}' has {} samples but time has {}", name, info->v_length,
+                         time->v_length);
+    }
+    waves->Set(name, std::vector<double>(info->v_realdata, info->v_realdata + n));
+  }
+  return "";
+}
+
+// Adds the wall time since construction to `*sum` when it ends.
+class StageClock {
+ public:
+  explicit StageClock(double* sum) : sum_(sum), start_(std::chrono::steady_clock::now()) {}
+  ~StageClock() {
+    *sum_ += std::chrono::duration<double>(std::chrono::steady_clock::now() - start_).count();
+  }
+  StageClock(const StageClock&) = delete;
+  StageClock& operator=(const StageClock&) = delete;
+
+ private:
+  double* sum_;
+  std::chrono::steady_clock::time_point start_;
+};
+
 }  // namespace
 
-struct NgspiceSimulator::State : RunCapture {};
+struct NgspiceSimulator::State : RunCapture {
+  EngineTimings timings;
+};
 
 NgspiceSimulator::NgspiceSimulator() : state_(std::make_unique<State>()) {
   if (g_active != nullptr) {
@@ -187,6 +229,10 @@ NgspiceSimulator::NgspiceSimulator() : state_(std::make_unique<State>()) {
 NgspiceSimulator::~NgspiceSimulator() {
   if (g_active == state_.get()) g_active = nullptr;
 }
+
+const EngineTimings& NgspiceSimulator::timings() const { return state_->timings; }
+
+void NgspiceSimulator::ResetTimings() { state_->timings = EngineTimings(); }
 
 SimulationOutput NgspiceSimulator::Run(const std::string& netlist,
                                        const std::vector<std::string>& vectors, double tstop_s) {
@@ -213,13 +259,22 @@ SimulationOutput NgspiceSimulator::Run(const std::string& netlist,
 
   // Return codes say little (0 on most errors); the printf and exit callbacks
   // tell what happened. After an exit callback nothing more may be sent.
-  ngSpice_Circ(pointers.data());
-  if (!state.exit_fired) Command("run");
+  EngineTimings& timings = state.timings;
+  ++timings.runs;
+  {
+    StageClock clock(&timings.load_s);
+    ngSpice_Circ(pointers.data());
+  }
+  if (!state.exit_fired) {
+    StageClock clock(&timings.run_s);
+    Command("run");
+  }
   size_t run_stderr_lines = state.stderr_lines.size();
 
   auto finish = [&](SimulationOutput& result) {
     if (!state.exit_fired) {
       // Both, or plots and circuits pile up (~1.3 MB per run measured).
+      StageClock clock(&timings.unload_s);
       Command("remcirc");
       Command("destroy all");
     }
@@ -251,6 +306,7 @@ SimulationOutput NgspiceSimulator::Run(const std::string& netlist,
     return out;
   }
   size_t n = static_cast<size_t>(time->v_length);
+  timings.samples += time->v_length;
   double t_end = time->v_realdata[n - 1];
   // ngspice ends exactly at tstop; allow for rounding only.
   if (t_end < tstop_s * (1.0 - 1e-9)) {
@@ -258,26 +314,9 @@ SimulationOutput NgspiceSimulator::Run(const std::string& netlist,
     finish(out);
     return out;
   }
-  out.waves.SetTime(std::vector<double>(time->v_realdata, time->v_realdata + n));
-
-  // Copy every vector out now: the pointers die with the plot.
-  for (const std::string& name : vectors) {
-    if (Lower(name) == "time") continue;
-    pvector_info info = LookUp(name);
-    if (info == nullptr) {
-      out.error = fmt::format("vector '{}' not found (available: {})", name, AvailableVectors());
-      break;
-    }
-    if (info->v_realdata == nullptr) {
-      out.error = fmt::format("vector '{}' is complex; only real vectors are supported", name);
-      break;
-    }
-    if (info->v_length != time->v_length) {
-      out.error = fmt::format("vector '{}' has {} samples but time has {}", name, info->v_length,
-                              time->v_length);
-      break;
-    }
-    out.waves.Set(name, std::vector<double>(info->v_realdata, info->v_realdata + n));
+  {
+    StageClock copy_clock(&timings.copy_s);
+    out.error = CopyVectors(time, vectors, &out.waves);
   }
   out.ok = out.error.empty();
   if (!out.ok) out.waves = Waveforms();

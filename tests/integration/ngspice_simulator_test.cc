@@ -56,6 +56,29 @@ TEST_F(NgspiceSimulatorTest, RcStepResponse) {
   EXPECT_TRUE(Contains(out.log, "stdout Circuit: rc step response")) << out.log;
 }
 
+// The stage clocks (EngineTimings) count each run once and its stored time
+// points exactly (checked against the time vector the run returns); a failed
+// load still counts as a run but stores no samples.
+TEST_F(NgspiceSimulatorTest, TimingsCountRunsAndSamples) {
+  sim_->ResetTimings();
+  SimulationOutput out = sim_->Run(kRcStep, {"v(out)"}, 5e-6);
+  ASSERT_TRUE(out.ok) << out.error;
+  const EngineTimings& t = sim_->timings();
+  EXPECT_EQ(t.runs, 1);
+  EXPECT_EQ(t.samples, static_cast<long>(out.waves.time().size()));
+  EXPECT_GT(t.run_s, 0);
+  EXPECT_GE(t.load_s, 0);
+  EXPECT_GE(t.copy_s, 0);
+  EXPECT_GE(t.unload_s, 0);
+  SimulationOutput bad = sim_->Run(
+      "bad card\nV1 in 0 DC 1\nR1 in 0 1k\n.tran 1n 1u\n.frobnicate\n.end\n", {"v(in)"}, 1e-6);
+  EXPECT_FALSE(bad.ok);
+  EXPECT_EQ(sim_->timings().runs, 2);
+  EXPECT_EQ(sim_->timings().samples, static_cast<long>(out.waves.time().size()));
+  sim_->ResetTimings();
+  EXPECT_EQ(sim_->timings().runs, 0);
+}
+
 TEST_F(NgspiceSimulatorTest, LcResonancePeakVoltage) {
   // L = 1 uH with 1 A, C = 1 nF empty: all of 1/2 L I^2 moves into the
   // capacitor, so |v| peaks at I sqrt(L/C) = 31.62 V and |i| stays at 1 A
