@@ -28,9 +28,11 @@
 // bench_stages.cc). Output: one line per point, then "RESULT key value" lines.
 // With --steps B1,B2,... it instead compares step bounds (seconds; 0 is
 // TranFor's own policy) against zvsmap's evaluation at --ref-step (default
-// 0.5e-9), see RunStepComparison.
+// 0.5e-9), see RunStepComparison. With --reload R it times reloading the
+// circuit per run against alter-and-rerun (bench_reload.cc), R repeats.
 // Usage: zvsmap_bench_point SWEEP [--ref REF] [--tol TOL] [--stages]
-//                           [--steps B1,B2,... [--ref-step R]] [--first K] [--count N]
+//                           [--steps B1,B2,... [--ref-step R]] [--reload R]
+//                           [--first K] [--count N]
 #include <algorithm>
 #include <chrono>
 #include <cmath>
@@ -43,6 +45,7 @@
 
 #include "analysis/commutation.h"
 #include "analysis/edge_finder.h"
+#include "bench_reload.h"
 #include "bench_stages.h"
 #include "core/spice_number.h"
 #include "netlist/render.h"
@@ -317,13 +320,14 @@ int main(int argc, char** argv) {
   if (argc < 2) {
     std::fprintf(stderr,
                  "usage: %s SWEEP [--ref REF] [--tol TOL] [--stages] [--steps B1,B2,... [--ref-step R]]\n"
-                 "       [--first K] [--count N]\n",
+                 "       [--reload R] [--first K] [--count N]\n",
                  argv[0]);
     return 2;
   }
   int ref = 1000;
   double tol = 0.005;
   bool stages = false;
+  int reload_repeats = 0;
   std::vector<double> steps;
   double ref_step = 0.5e-9;
   size_t first = 0, count = SIZE_MAX;
@@ -339,6 +343,8 @@ int main(int argc, char** argv) {
         steps.push_back(std::strtod(at, &at));
         if (*at == ',') ++at;
       }
+    else if (!std::strcmp(argv[i], "--reload") && i + 1 < argc)
+      reload_repeats = std::atoi(argv[++i]);
     else if (!std::strcmp(argv[i], "--ref-step") && i + 1 < argc)
       ref_step = std::atof(argv[++i]);
     else if (!std::strcmp(argv[i], "--first") && i + 1 < argc)
@@ -361,6 +367,7 @@ int main(int argc, char** argv) {
     s.points = slice;
   }
   if (stages) return RunStageBreakdown(s);
+  if (reload_repeats > 0) return RunReloadComparison(s, reload_repeats);
   if (!steps.empty()) return RunStepComparison(s, steps, ref_step);
   NgspiceSimulator sim;
   const int measured = std::max(2, s.spec.simulation.measure_periods);
