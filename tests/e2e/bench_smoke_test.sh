@@ -28,6 +28,8 @@ need "faster than the plain ngspice batch loop"
 for stage in render load setup stepping copy unload analysis store other; do
   grep -q -E "^$stage +[0-9.]+% +[0-9.]+%" "$out" || { echo "missing stage: $stage"; fail=1; }
 done
+# The engine's own count of stored time points per run (EngineTimings.samples).
+grep -q -E "^samples/run +[1-9][0-9]* +[1-9][0-9]*" "$out" || { echo "missing: samples/run"; fail=1; }
 grep -q "plain ngspice failed" "$out" && { echo "a plain ngspice run failed"; fail=1; }
 [ $fail -eq 0 ] || cat "$out"
 exit $fail
