@@ -292,8 +292,8 @@ int RunStepComparison(const PreparedSweep& s, const std::vector<double>& steps, 
       samples[k] += sim.timings().samples - before;
       periods[k] += r.settle.periods;
       wall[k].push_back(r.wall_s);
-      err[k].push_back(r.status == PointStatus::kOk ? RelError(FromEdges(r.edges), FromEdges(ref.edges))
-                                                     : NAN);
+      err[k].push_back(
+          r.status == PointStatus::kOk ? RelError(FromEdges(r.edges), FromEdges(ref.edges)) : NAN);
       std::printf(" [%g: %.3f s, err %.4f%%]", steps[k], r.wall_s, 100 * err[k].back());
     }
     std::printf("\n");
@@ -318,10 +318,11 @@ int RunStepComparison(const PreparedSweep& s, const std::vector<double>& steps, 
 
 int main(int argc, char** argv) {
   if (argc < 2) {
-    std::fprintf(stderr,
-                 "usage: %s SWEEP [--ref REF] [--tol TOL] [--stages] [--steps B1,B2,... [--ref-step R]]\n"
-                 "       [--reload R] [--first K] [--count N]\n",
-                 argv[0]);
+    std::fprintf(
+        stderr,
+        "usage: %s SWEEP [--ref REF] [--tol TOL] [--stages] [--steps B1,B2,... [--ref-step R]]\n"
+        "       [--reload R] [--first K] [--count N]\n",
+        argv[0]);
     return 2;
   }
   int ref = 1000;

@@ -1,21 +1,19 @@
 // Stage breakdown of a point (bench only). StagedSimulator runs each netlist
 // through zvsmap's own NgspiceSimulator and reads its stage clocks
-// (EngineTimings: load, run, copy the vectors, unload). ngspice's setup before the first time step is part of its
-// "run" command; it is estimated per run by running the same netlist once
-// more with tstop = one step bound (that extra run is timed apart and left out
-// of the figures). Render is one PointEvaluator::Render timed per run,
-// analysis is the edge finding and measuring plus the hand calculation on the
-// settled waveforms, store is RunStore::SavePoint into a scratch store;
-// "other" is what is left of the evaluation's wall time (settling algebra,
-// parameter resolution).
+// (EngineTimings: load, run, copy the vectors, unload). ngspice's setup before the first time step
+// is part of its "run" command; it is estimated per run by running the same netlist once more with
+// tstop = one step bound (that extra run is timed apart and left out of the figures). Render is one
+// PointEvaluator::Render timed per run, analysis is the edge finding and measuring plus the hand
+// calculation on the settled waveforms, store is RunStore::SavePoint into a scratch store; "other"
+// is what is left of the evaluation's wall time (settling algebra, parameter resolution).
 #include "bench_stages.h"
 
 #include <unistd.h>
 
 #include <algorithm>
 #include <chrono>
-#include <cstdlib>
 #include <cstdio>
+#include <cstdlib>
 #include <memory>
 #include <sstream>
 #include <string>

@@ -11,12 +11,12 @@ namespace zvsmap {
 /// wall clock; a clock read around each stage, nothing else). Benchmarks read
 /// it (tools/bench_stages.cc); zvsmap's own output does not show it.
 struct EngineTimings {
-  int runs = 0;           ///< Run calls that reached the engine
-  long samples = 0;       ///< time points the engine stored, over all runs
-  double load_s = 0;      ///< ngSpice_Circ: parsing, subcircuit and parameter expansion
-  double run_s = 0;       ///< the "run" command: setup before the first step and time stepping
-  double copy_s = 0;      ///< copying the asked-for vectors out of the plot
-  double unload_s = 0;    ///< remcirc and destroy all
+  int runs = 0;         ///< Run calls that reached the engine
+  long samples = 0;     ///< time points the engine stored, over all runs
+  double load_s = 0;    ///< ngSpice_Circ: parsing, subcircuit and parameter expansion
+  double run_s = 0;     ///< the "run" command: setup before the first step and time stepping
+  double copy_s = 0;    ///< copying the asked-for vectors out of the plot
+  double unload_s = 0;  ///< remcirc and destroy all
 };
 
 /// The ngspice library keeps global state and is not re-entrant: create at
