@@ -304,7 +304,9 @@ int Run(const Options& opts, const CliSeams& seams) {
     std::vector<size_t> round_mine;
     size_t round_size = sweep.points.size() - round_begin;
     if (shard) {
-      for (size_t k : ShardPointIndices(round_size, *shard)) round_mine.push_back(round_begin + k);
+      for (size_t k : ShardPointsOf(sweep.points, round_begin, *shard)) {
+        round_mine.push_back(round_begin + k);
+      }
       if (!opts.quiet) {
         std::fprintf(stderr, "zvsmap: shard %s (from %s)%s: %zu of %zu points\n",
                      shard_text.c_str(), shard->source.c_str(),

@@ -65,7 +65,20 @@ ReportBasis::ReportBasis(const ReportInput& input)
 
 bool WriteReports(const ReportInput& raw_input, const std::string& dir, ReportOutcome* outcome,
                   std::string* error) {
-  const ReportBasis input(raw_input);
+  // Tolerance variants are summarized per nominal point; every other report
+  // sees the nominal points alone.
+  std::vector<Point> nominal_points;
+  std::vector<PointResult> nominal_results;
+  for (size_t i = 0; i < raw_input.points.size() && i < raw_input.results.size(); ++i) {
+    if (raw_input.points[i].variant) continue;
+    nominal_points.push_back(raw_input.points[i]);
+    nominal_results.push_back(raw_input.results[i]);
+  }
+  ReportInput nominal{raw_input.spec, raw_input.tmpl, nominal_points, nominal_results,
+                      raw_input.refinement};
+  ReportBasis input(nominal);
+  input.tolerance = SummarizeTolerances(raw_input.spec.tolerances, raw_input.points,
+                                        raw_input.results, ChooseMargin(raw_input.results));
   std::ostringstream csv;
   WriteEdgesCsv(csv, input.points, input.results);
   if (!WriteText(dir, "edges.csv", csv.str(), outcome, error)) return false;
@@ -90,6 +103,12 @@ bool WriteReports(const ReportInput& raw_input, const std::string& dir, ReportOu
   }
 
   std::vector<std::string> links = {"edges.csv", "summary.xml", "junit.xml"};
+  if (input.tolerance.used) {
+    std::ostringstream tolerance;
+    WriteToleranceCsv(tolerance, input.tolerance);
+    if (!WriteText(dir, "tolerance.csv", tolerance.str(), outcome, error)) return false;
+    links.push_back("tolerance.csv");
+  }
   if (input.envelope.available) {
     std::ostringstream schedule;
     WriteDeadTimeScheduleCsv(schedule, input);

@@ -6,6 +6,7 @@
 
 #include "netlist/template.h"
 #include "report/dead_time_envelope.h"
+#include "report/tolerance_report.h"
 #include "report/zvs_boundary.h"
 #include "result/point_result.h"
 #include "sweep/point.h"
@@ -40,6 +41,9 @@ struct ReportBasis : ReportInput {
   MarginSource margin;         ///< ChooseMargin(results)
   WindowColumns window;        ///< FindWindowColumns(results)
   DeadTimeEnvelope envelope;   ///< ComputeDeadTimeEnvelope(grid, results, edges)
+  /// The tolerance variants summarized by nominal point (WriteReports fills
+  /// it from every point before the basis is made from the nominal ones).
+  ToleranceSummary tolerance = {};
 };
 
 /// What writing the reports found out, for the verdict and the exit status.
@@ -50,6 +54,8 @@ struct ReportOutcome {
 };
 
 /// Writes every report into `dir` (which exists): edges.csv, summary.xml,
+/// tolerance.csv (with <tolerances>: the variants are summarized by nominal
+/// point, every other report sees the nominal points only),
 /// junit.xml, deadtime_schedule.csv (when the results carry the probe's
 /// window), the SVG plots and index.html; evaluates the sweep's requirements
 /// and fills `outcome` (files written, requirements total and failed). Returns

@@ -2,6 +2,7 @@
 
 #include <cctype>
 #include <cmath>
+#include <cstdio>
 
 #include "core/expression.h"
 #include "core/spice_number.h"
@@ -100,8 +101,51 @@ std::string Check(const RequirementSpec& r, const EdgeMeasurement& e, const Marg
     }
     case RequirementSpec::Kind::kGivenDeadTime:
       return CheckGivenDeadTime(r, e, label);
+    case RequirementSpec::Kind::kYield:
+    case RequirementSpec::Kind::kWorstMargin:
+      break;  // CheckTolerance, on the variants
   }
   return "";
+}
+
+bool IsToleranceKind(RequirementSpec::Kind k) {
+  return k == RequirementSpec::Kind::kYield || k == RequirementSpec::Kind::kWorstMargin;
+}
+
+// A tolerance requirement at one nominal point's edge; "" when it holds.
+std::string CheckTolerance(const RequirementSpec& r, const EdgeTolerance& t, double confidence) {
+  std::string label = t.key.Label();
+  if (r.kind == RequirementSpec::Kind::kYield) {
+    if (t.samples > 0 && t.yield >= r.min) return "";
+    char interval[96];
+    std::snprintf(interval, sizeof interval, "%.4g%% (%.4g%% to %.4g%% at %.4g%%)",
+                  t.yield * 100, t.interval.low * 100, t.interval.high * 100, confidence * 100);
+    return label + " yield " + (t.samples > 0 ? interval : "not measured") + " over " +
+           std::to_string(t.samples) + " samples, worst sample " +
+           std::to_string(t.worst_sample);
+  }
+  if (!std::isnan(t.worst_energy_margin) && t.worst_energy_margin >= r.min) return "";
+  return label + " worst-case zvs_energy_margin=" + Num(t.worst_energy_margin) + " at corner " +
+         (t.worst_energy_corner.empty() ? "(none)" : t.worst_energy_corner);
+}
+
+// The problems of a tolerance requirement at one nominal point: per matching
+// edge, or "not measured" when no variant measured it.
+std::vector<std::string> ToleranceProblems(const RequirementSpec& r, const PointTolerance* pt,
+                                           double confidence) {
+  std::vector<std::string> problems;
+  bool any_edge = false;
+  for (const EdgeTolerance& t : pt ? pt->edges : std::vector<EdgeTolerance>{}) {
+    if (t.key.edge != r.edge || (!r.cell.empty() && !SameName(t.key.cell, r.cell))) continue;
+    any_edge = true;
+    std::string problem = CheckTolerance(r, t, confidence);
+    if (!problem.empty()) problems.push_back(problem);
+  }
+  if (!any_edge) {
+    problems.push_back("edge " + (r.cell.empty() ? r.edge : r.cell + "." + r.edge) +
+                       " not measured by any tolerance variant");
+  }
+  return problems;
 }
 
 }  // namespace
@@ -141,8 +185,12 @@ std::vector<RequirementVerdict> EvaluateRequirements(const ReportBasis& input) {
       }
       ++v.checked;
       std::vector<std::string> problems;
-      bool any_edge = false;
-      for (const EdgeMeasurement& e : result.edges) {
+      bool any_edge = IsToleranceKind(r.kind);
+      if (any_edge) {
+        problems = ToleranceProblems(r, input.tolerance.Find(point.index),
+                                     input.tolerance.confidence);
+      }
+      for (const EdgeMeasurement& e : any_edge ? std::vector<EdgeMeasurement>{} : result.edges) {
         if (e.edge != r.edge || (!r.cell.empty() && !SameName(e.cell, r.cell))) continue;
         any_edge = true;
         std::string problem = Check(r, e, margin, window);

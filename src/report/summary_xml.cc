@@ -309,6 +309,60 @@ void AddOperatingPoints(pugi::xml_node root, const ReportBasis& input) {
   }
 }
 
+// <tolerances>: per nominal point and edge the worst corners and the yield.
+void AddTolerances(pugi::xml_node root, const ReportBasis& input) {
+  const ToleranceSummary& s = input.tolerance;
+  if (!s.used) return;
+  const ToleranceSpec& spec = input.spec.tolerances;
+  pugi::xml_node node = root.append_child("tolerances");
+  node.append_attribute("seed") = static_cast<unsigned long long>(spec.seed);
+  node.append_attribute("samples") = spec.samples;
+  node.append_attribute("confidence") = XmlNumber(s.confidence).c_str();
+  node.append_attribute("pass") = PassName(s.pass);
+  for (const VarySpec& v : spec.vary) {
+    pugi::xml_node x = node.append_child("vary");
+    x.append_attribute("param") = v.param.c_str();
+    x.append_attribute("within") = XmlNumber(v.within).c_str();
+    x.append_attribute("relative") = v.relative;
+    x.append_attribute("spread") = SpreadName(v.spread);
+    if (v.spread == VarySpec::Spread::kNormal) {
+      x.append_attribute("sigma") = XmlNumber(v.sigma).c_str();
+    }
+  }
+  for (const PointTolerance& p : s.points) {
+    pugi::xml_node pn = node.append_child("point");
+    pn.append_attribute("index") = static_cast<unsigned long long>(p.nominal);
+    if (p.point) {
+      for (const ParamValue& v : p.point->values) AddAt(pn, v.name, v.value);
+    }
+    for (const EdgeTolerance& t : p.edges) {
+      pugi::xml_node e = pn.append_child("edge");
+      e.append_attribute("name") = t.key.Label().c_str();
+      e.append_attribute("corners") = t.corners;
+      if (!std::isnan(t.worst_energy_margin)) {
+        e.append_attribute("worst-energy-margin") = XmlNumber(t.worst_energy_margin).c_str();
+        e.append_attribute("worst-energy-corner") = t.worst_energy_corner.c_str();
+      }
+      if (!std::isnan(t.worst_timing_margin_s)) {
+        e.append_attribute("worst-timing-margin-s") = XmlNumber(t.worst_timing_margin_s).c_str();
+        e.append_attribute("worst-timing-corner") = t.worst_timing_corner.c_str();
+      }
+      e.append_attribute("samples") = t.samples;
+      e.append_attribute("passes") = t.passes;
+      e.append_attribute("unmeasured") = t.unmeasured;
+      if (t.samples > 0) {
+        e.append_attribute("yield") = XmlNumber(t.yield).c_str();
+        e.append_attribute("yield-low") = XmlNumber(t.interval.low).c_str();
+        e.append_attribute("yield-high") = XmlNumber(t.interval.high).c_str();
+      }
+      if (t.worst_sample >= 0) {
+        e.append_attribute("worst-sample") = t.worst_sample;
+        e.append_attribute("worst-sample-margin") = XmlNumber(t.worst_sample_margin).c_str();
+      }
+    }
+  }
+}
+
 }  // namespace
 
 void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerdict>& verdicts,
@@ -365,6 +419,8 @@ void BuildSummaryXml(const ReportBasis& input, const std::vector<RequirementVerd
   for (const EdgeKey& key : input.edges) {
     AddEdge(root, input, grid, key, margin, input.window, input.envelope.Find(key));
   }
+
+  AddTolerances(root, input);
 
   pugi::xml_node failed_node = root.append_child("failed-points");
   failed_node.append_attribute("count") = failed + unsettled;

@@ -15,6 +15,16 @@ std::vector<std::string> PointContentHashes(const PreparedSweep& sweep,
     std::string canonical = evaluator.RenderPointDeck(sweep.points[i], &deck, &render_error)
                                 ? deck.Canonical()
                                 : "render error: " + render_error.message;
+    // A tolerance variant's values are in its deck; the block that drew them
+    // (seed, spreads, widths, corner choice) and its tag are added too, so a
+    // changed block never takes a stale variant. Nominal points keep their
+    // hash: adding a block to a sweep reuses the nominal results.
+    const std::optional<VariantTag>& tag = sweep.points[i].variant;
+    if (tag) {
+      canonical += "\n" + sweep.spec.tolerances.Canonical() + "\nvariant " +
+                   (tag->kind == VariantTag::Kind::kCorner ? "corner " : "sample ") +
+                   std::to_string(tag->number);
+    }
     hashes[i] = PointContentHash(canonical, sweep.spec, sweep.tmpl);
   }
   return hashes;

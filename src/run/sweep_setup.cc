@@ -1,5 +1,6 @@
 #include "run/sweep_setup.h"
 
+#include "core/text.h"
 #include "handcalc/hand_calculation.h"
 #include "netlist/deck_names.h"
 #include "netlist/deck_rules.h"
@@ -8,8 +9,38 @@
 #include "run/solver_ladder.h"
 #include "sweep/sweep_expand.h"
 #include "sweep/sweep_parser.h"
+#include "sweep/tolerance_expand.h"
+#include "netlist/render.h"
 
 namespace zvsmap {
+
+namespace {
+
+// The tolerance variants of every nominal point (sweep/tolerance_expand.h),
+// around each varied parameter's value at that point: the point's own, else
+// the template's (resolved like the deck will be).
+bool AddToleranceVariants(PreparedSweep* out, Diagnostic* error) {
+  const ToleranceSpec& tol = out->spec.tolerances;
+  if (!tol.used) return true;
+  std::vector<std::vector<double>> nominal_values;
+  for (const Point& p : out->points) {
+    Variables resolved;
+    if (!ResolveParams(out->tmpl, p.values, &resolved, error)) return false;
+    std::vector<double> row;
+    for (const VarySpec& v : tol.vary) {
+      auto it = resolved.find(Lower(v.param));
+      if (it == resolved.end()) {
+        *error = Diagnostic(v.where, "the template gives no value for '" + v.param + "'");
+        return false;
+      }
+      row.push_back(it->second);
+    }
+    nominal_values.push_back(std::move(row));
+  }
+  return ExpandTolerances(tol, nominal_values, out->spec.max_points, &out->points, error);
+}
+
+}  // namespace
 
 bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, PreparedSweep* out,
                   std::vector<Diagnostic>* errors) {
@@ -42,6 +73,10 @@ bool PrepareSweep(const std::string& sweep_path, size_t max_points_override, Pre
     return false;
   }
   if (!ExpandSweep(out->spec, &out->points, &error)) {
+    errors->push_back(error);
+    return false;
+  }
+  if (!AddToleranceVariants(out, &error)) {
     errors->push_back(error);
     return false;
   }

@@ -15,6 +15,16 @@ struct ParamValue {
   double value = 0;
 };
 
+/// A tolerance variant of a nominal point (<tolerances>, sweep/tolerance_expand.h).
+struct VariantTag {
+  enum class Kind { kCorner, kSample };
+  size_t nominal = 0;  ///< the index of the nominal point it varies
+  Kind kind = Kind::kCorner;
+  /// kCorner: the corner's mask (bit j set: the j-th <vary> at its high end);
+  /// kSample: the Monte Carlo sample's number (0-based).
+  unsigned number = 0;
+};
+
 /// One operating point: its index in the expanded sweep (stable for a given
 /// sweep file) and the parameter values that differ from the template's
 /// defaults, in a fixed order (fixed values, then axes in file order, then
@@ -32,6 +42,8 @@ struct Point {
   /// Adaptive refinement (<refine>): the round that added the point (0 = the
   /// coarse grid); -1 when the sweep is not refined.
   int refine_round = -1;
+  /// Set on a tolerance variant; empty on a nominal point.
+  std::optional<VariantTag> variant = std::nullopt;
 
   /// The value of `name` (compared case-insensitively, as SPICE does), if this
   /// point sets it.

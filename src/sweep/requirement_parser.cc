@@ -79,6 +79,32 @@ bool ParseGivenDeadTime(pugi::xml_node node, const RequirementFail& fail, Requir
   return true;
 }
 
+// yield-min="99%" (a percentage or a fraction up to 1) or
+// worst-margin-min="0.05": the bound a tolerance requirement checks.
+bool ParseToleranceBound(pugi::xml_node node, bool yield, const RequirementFail& fail,
+                         RequirementSpec* r) {
+  const char* name = yield ? "yield-min" : "worst-margin-min";
+  r->kind = yield ? RequirementSpec::Kind::kYield : RequirementSpec::Kind::kWorstMargin;
+  std::string raw = Trim(node.attribute(name).value());
+  bool percent = yield && !raw.empty() && raw.back() == '%';
+  if (percent) {
+    std::string number = Trim(raw.substr(0, raw.size() - 1));
+    NumberSpelling spelling = JudgeSpiceSpelling(number);
+    std::optional<double> v = ParseSpiceNumber(number);
+    if (spelling.kind == NumberSpelling::Kind::kRefused) {
+      return fail(name, "in attribute '" + std::string(name) + "': " + spelling.message);
+    }
+    if (!v || !std::isfinite(*v)) return fail(name, "bad number '" + raw + "' in attribute '" + name + "'");
+    r->min = *v / 100;
+  } else if (!ReadNumber(node, name, fail, &r->min)) {
+    return false;
+  }
+  if (yield && !(r->min > 0 && r->min <= 1)) {
+    return fail(name, "'yield-min' must lie above 0 and at most 100%, got '" + raw + "'");
+  }
+  return true;
+}
+
 }  // namespace
 
 std::string RequirementSpec::Describe() const {
@@ -99,6 +125,12 @@ std::string RequirementSpec::Describe() const {
     case Kind::kGivenDeadTime:
       out += " dead time " + FormatEngineering(dead_time_s) + "s within the probe's window";
       break;
+    case Kind::kYield:
+      out += " ZVS yield >= " + FormatNumber(min * 100) + "% at every point";
+      break;
+    case Kind::kWorstMargin:
+      out += " worst-case energy margin >= " + FormatEngineering(min) + " at every point";
+      break;
   }
   out += where_expression.empty() ? " over the whole grid" : " where " + where_expression;
   return out;
@@ -108,7 +140,7 @@ bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const Re
                       RequirementSpec* out) {
   static const std::vector<std::string> kAllowed = {
       "edge",  "class",     "metric",        "min", "max", "dead-time-within-window",
-      "where", "dead-time", "within-window", "name"};
+      "where", "dead-time", "within-window", "name", "yield-min", "worst-margin-min"};
   for (pugi::xml_attribute a : node.attributes()) {
     std::string name = a.name();
     if (std::find(kAllowed.begin(), kAllowed.end(), name) == kAllowed.end()) {
@@ -146,11 +178,14 @@ bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const Re
                 "'within-window' goes with 'dead-time' (e.g. dead-time=\"45n\" "
                 "within-window=\"true\")");
   }
-  int kinds = int{has_class} + int{has_metric} + int{has_window} + int{has_given};
+  bool has_yield = node.attribute("yield-min");
+  bool has_worst = node.attribute("worst-margin-min");
+  int kinds = int{has_class} + int{has_metric} + int{has_window} + int{has_given} +
+              int{has_yield} + int{has_worst};
   if (kinds != 1) {
     return fail(nullptr,
-                "<require> takes exactly one of 'class', 'metric', 'dead-time-within-window' or "
-                "'dead-time' (with within-window=\"true\")");
+                "<require> takes exactly one of 'class', 'metric', 'dead-time-within-window', "
+                "'dead-time' (with within-window=\"true\"), 'yield-min' or 'worst-margin-min'");
   }
   if ((node.attribute("min") || node.attribute("max")) && !has_metric) {
     return fail(node.attribute("min") ? "min" : "max", "'min' and 'max' go with 'metric'");
@@ -180,6 +215,8 @@ bool ParseRequirement(pugi::xml_node node, const SourceLocation& where, const Re
     }
   } else if (has_given) {
     if (!ParseGivenDeadTime(node, fail, &r)) return false;
+  } else if (has_yield || has_worst) {
+    if (!ParseToleranceBound(node, has_yield, fail, &r)) return false;
   } else {
     r.kind = RequirementSpec::Kind::kDeadTimeWindow;
     std::string value = Trim(node.attribute("dead-time-within-window").value());

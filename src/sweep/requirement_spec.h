@@ -24,7 +24,11 @@ namespace zvsmap {
 ///   kGivenDeadTime  the dead time `dead_time_s` (not the one set) lies inside
 ///                   the probe's window at every point covered.
 struct RequirementSpec {
-  enum class Kind { kClass, kMetric, kDeadTimeWindow, kGivenDeadTime };
+  ///   kYield          (<tolerances>) the edge's ZVS yield over each nominal
+  ///                   point's samples is at least `min` (a fraction);
+  ///   kWorstMargin    (<tolerances>) the edge's worst-case energy margin
+  ///                   over each nominal point's corners is at least `min`.
+  enum class Kind { kClass, kMetric, kDeadTimeWindow, kGivenDeadTime, kYield, kWorstMargin };
   Kind kind = Kind::kClass;
   std::string name;       ///< optional label from the file; else "" (see Describe)
   std::string cell;       ///< "" = every cell

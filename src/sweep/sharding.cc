@@ -114,4 +114,15 @@ std::vector<size_t> ShardPointIndices(size_t total_points, const ShardSpec& shar
   return out;
 }
 
+std::vector<size_t> ShardPointsOf(const std::vector<Point>& points, size_t begin,
+                                  const ShardSpec& shard) {
+  std::vector<size_t> out;
+  for (size_t k = begin; k < points.size(); ++k) {
+    const Point& p = points[k];
+    size_t group = p.variant && p.variant->nominal >= begin ? p.variant->nominal : k;
+    if ((group - begin) % shard.count == shard.index) out.push_back(k - begin);
+  }
+  return out;
+}
+
 }  // namespace zvsmap

@@ -8,6 +8,8 @@
 #include <string>
 #include <vector>
 
+#include "sweep/point.h"
+
 namespace zvsmap {
 
 /// Shard `index` of `count` (0-based index).
@@ -39,5 +41,14 @@ bool ShardFromEnvironment(const std::function<const char*(const char*)>& getenv,
 /// index. Interleaving spreads neighbouring (similarly costly) grid points over
 /// all shards, which balances them when the cost varies smoothly over the grid.
 std::vector<size_t> ShardPointIndices(size_t total_points, const ShardSpec& shard);
+
+/// The shard's points among points[begin..]: positions k (from `begin`)
+/// whose group number % count == shard index, ascending. A point's group is
+/// its own position, a tolerance variant's that of its nominal point, so one
+/// shard runs a nominal point with all its variants (and the merged shards
+/// hold every variant of a point). Without variants the same as
+/// ShardPointIndices(points.size() - begin, shard).
+std::vector<size_t> ShardPointsOf(const std::vector<Point>& points, size_t begin,
+                                  const ShardSpec& shard);
 
 }  // namespace zvsmap

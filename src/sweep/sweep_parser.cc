@@ -17,6 +17,7 @@
 #include "sweep/prediction_parser.h"
 #include "sweep/refine_parser.h"
 #include "sweep/requirement_parser.h"
+#include "sweep/tolerance_parser.h"
 
 namespace zvsmap {
 
@@ -148,6 +149,7 @@ class Parser {
   bool ParseSimulation(pugi::xml_node node);
   bool ParseZvs(pugi::xml_node node);
   bool ParseLimits(pugi::xml_node node);
+  bool ParseTolerancesBlock(pugi::xml_node node);
 
   const std::string& text_;
   const std::string& path_;
@@ -603,6 +605,18 @@ bool Parser::ParseLimits(pugi::xml_node node) {
   return true;
 }
 
+bool Parser::ParseTolerancesBlock(pugi::xml_node node) {
+  if (!Once(node)) return false;
+  auto where = [&](pugi::xml_node n) { return Where(n); };
+  auto fail = [&](pugi::xml_node n, const char* attribute, const std::string& message) {
+    return attribute ? FailAttr(n, attribute, message) : Fail(n, message);
+  };
+  auto warn = [&](pugi::xml_node n, const char* attribute, const std::string& message) {
+    spec_->warnings.push_back(Make(WhereAttr(n, attribute), message));
+  };
+  return ParseTolerances(node, where, fail, warn, &spec_->tolerances);
+}
+
 bool Parser::Run(bool check_template_exists) {
   *spec_ = SweepSpec();
   spec_->path = path_;
@@ -622,7 +636,7 @@ bool Parser::Run(bool check_template_exists) {
   static const std::vector<std::string> kElements = {"template", "set",        "axis",  "lockstep",
                                                      "derive",   "simulation", "zvs",   "limits",
                                                      "require",  "predict",    "device",
-                                                     "refine"};
+                                                     "refine",   "tolerances"};
   for (pugi::xml_node node : root.children()) {
     if (node.type() != pugi::node_element) {
       return Fail(WhereText(node), "unexpected text in <sweep>");
@@ -632,7 +646,7 @@ bool Parser::Run(bool check_template_exists) {
       return Fail(node,
                   "unknown element <" + name + "> in <sweep>" + Suggest(name, kElements, "<", ">"));
     }
-    if (name != "lockstep" && node.first_child()) {
+    if (name != "lockstep" && name != "tolerances" && node.first_child()) {
       return Fail(node, "<" + name + "> takes no content");
     }
     bool ok = true;
@@ -689,6 +703,8 @@ bool Parser::Run(bool check_template_exists) {
       };
       ok = ParseRefine(node, Where(node), *spec_, fail, &r);
       if (ok) spec_->refine.push_back(std::move(r));
+    } else if (name == "tolerances") {
+      ok = ParseTolerancesBlock(node);
     } else if (name == "predict") {
       PredictionSpec p;
       std::string tolerance = Trim(node.attribute("tolerance").value());
@@ -709,6 +725,7 @@ bool Parser::Run(bool check_template_exists) {
   if (!CheckRequirementNames(*spec_, error_)) return Fail(error_->where, error_->message);
   if (!CheckDeviceAxes()) return false;
   if (!CheckRefineAxes(spec_, error_)) return Fail(error_->where, error_->message);
+  if (!CheckToleranceParams(*spec_, error_)) return Fail(error_->where, error_->message);
   if (check_template_exists) {
     std::error_code ec;
     if (!std::filesystem::is_regular_file(spec_->template_path, ec)) {
@@ -744,7 +761,9 @@ std::vector<Diagnostic> CheckParamsKnown(const SweepSpec& spec,
   // SPICE parameter names are case-insensitive, so "vin" in the template
   // matches "Vin" in the sweep file.
   std::vector<Diagnostic> problems;
-  for (const auto& [name, where] : spec.NamedParams()) {
+  std::vector<std::pair<std::string, SourceLocation>> named = spec.NamedParams();
+  for (const VarySpec& v : spec.tolerances.vary) named.emplace_back(v.param, v.where);
+  for (const auto& [name, where] : named) {
     std::string lower = Lower(name);
     bool found = std::any_of(known.begin(), known.end(),
                              [&](const std::string& k) { return Lower(k) == lower; });

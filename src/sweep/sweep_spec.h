@@ -11,6 +11,7 @@
 #include "sweep/prediction_spec.h"
 #include "sweep/refine_spec.h"
 #include "sweep/requirement_spec.h"
+#include "sweep/tolerance_spec.h"
 
 namespace zvsmap {
 
@@ -117,6 +118,8 @@ struct SweepSpec {
   /// <refine> elements, in file order (checked against the axes; empty: no
   /// adaptive refinement, the grid is run as it is).
   std::vector<RefineSpec> refine = {};
+  /// The <tolerances> block (`used` false when the file has none).
+  ToleranceSpec tolerances = {};
 
   /// Number of points of the crossed grid (product of group sizes).
   size_t GridSize() const;
