@@ -126,10 +126,10 @@ std::string RequirementSpec::Describe() const {
       out += " dead time " + FormatEngineering(dead_time_s) + "s within the probe's window";
       break;
     case Kind::kYield:
-      out += " ZVS yield >= " + FormatNumber(min * 100) + "% at every point";
+      out += " ZVS yield >= " + FormatNumber(min * 100) + "% at each point";
       break;
     case Kind::kWorstMargin:
-      out += " worst-case energy margin >= " + FormatEngineering(min) + " at every point";
+      out += " worst-case energy margin >= " + FormatEngineering(min) + " at each point";
       break;
   }
   out += where_expression.empty() ? " over the whole grid" : " where " + where_expression;

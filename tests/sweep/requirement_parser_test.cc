@@ -96,7 +96,8 @@ TEST_F(RequirementParserTest, GivenDeadTimeErrors) {
   EXPECT_EQ(Error(Sweep("  <require edge=\"high_on\" dead-time=\"45n\" within-window=\"true\" "
                         "dead-time-within-window=\"true\"/>\n")),
             "sweeps/demo.xml:4: <require> takes exactly one of 'class', 'metric', "
-            "'dead-time-within-window' or 'dead-time' (with within-window=\"true\")");
+            "'dead-time-within-window', 'dead-time' (with within-window=\"true\"), 'yield-min' "
+            "or 'worst-margin-min'");
 }
 
 TEST_F(RequirementParserTest, ErrorsNameFileAndLine) {
@@ -105,7 +106,8 @@ TEST_F(RequirementParserTest, ErrorsNameFileAndLine) {
       "sweeps/demo.xml:4: bad class 'ful' (use \"full\", or \"partial\" for full or partial)");
   EXPECT_EQ(Error(Sweep("  <require edge=\"leg.high_on\" class=\"full\" metric=\"x\"/>\n")),
             "sweeps/demo.xml:4: <require> takes exactly one of 'class', 'metric', "
-            "'dead-time-within-window' or 'dead-time' (with within-window=\"true\")");
+            "'dead-time-within-window', 'dead-time' (with within-window=\"true\"), 'yield-min' "
+            "or 'worst-margin-min'");
   EXPECT_EQ(Error(Sweep("  <require edge=\"leg.high_on\" metric=\"zvs_margin\"/>\n")),
             "sweeps/demo.xml:4: <require metric=...> needs 'min', 'max' or both");
   EXPECT_EQ(Error(Sweep("  <require edge=\"leg.high_on\" class=\"full\" wher=\"1\"/>\n")),
