@@ -50,4 +50,28 @@ diff <(strip_timing "$work/single/edges.csv") <(strip_timing "$work/out/merged/e
 for k in 0 1 2; do
   [ -f "$work/out/shards/$k/run.sqlite" ] || fail "shard $k wrote no store"
 done
+
+# The tolerance demo (25 nominal points, 8 corners each) as a 3-task array:
+# each shard runs whole nominal points with their variants, the merge job
+# summarizes them. 4 Monte Carlo samples per point instead of the file's 200
+# keep the test near a minute; the sharding does not depend on the count.
+tol=$work/demo_buck_tolerances.xml
+sed "s/samples=\"200\"/samples=\"4\"/; s|file=\"\.\./netlists/|file=\"$src/netlists/|" \
+  "$src/sweeps/demo_buck_tolerances.xml" > "$tol"
+grep -q 'samples="4"' "$tol" || fail "the tolerance demo's sample count was not found"
+read -r array_id merge_id < <("$src/tools/slurm-launch" "$tol" "$work/tol" 3 1 "$zvsmap") \
+  || fail "launch (tolerances)"
+for _ in $(seq 600); do
+  if ! squeue -h -j "$merge_id" 2>/dev/null | grep -q .; then break; fi
+  sleep 1
+done
+[ -f "$work/tol/merged/tolerance.csv" ] || fail "no merged tolerance.csv"
+"$zvsmap" run "$tol" --out "$work/tol-single" -q 2>/dev/null || fail "single-machine tolerance run"
+diff "$work/tol-single/tolerance.csv" "$work/tol/merged/tolerance.csv" \
+  || fail "the merged tolerance.csv differs from the single-machine run"
+# 25 nominal points x 2 edges, each with 8 corners and 4 samples.
+rows=$(awk -F, 'NR > 1 && $9 == 8 && $14 == 4' "$work/tol/merged/tolerance.csv" | wc -l)
+[ "$rows" -eq 50 ] || fail "tolerance.csv has $rows complete rows, expected 50"
+grep -q '<tolerances seed="4242" samples="4"' "$work/tol/merged/summary.xml" \
+  || fail "no <tolerances> in the merged summary.xml"
 echo "Slurm job array end-to-end: ok"
