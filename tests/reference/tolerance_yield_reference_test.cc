@@ -1,6 +1,6 @@
 // Tolerances in real ngspice: the ZVS yield over Monte Carlo samples of the
 // inductance against the closed-form yield, and the worst corner against the
-// closed form's (REFERENCES.md sec. 2 and 12).
+// closed form's (netlists/references.md sec. 2 and 12).
 #include <gtest/gtest.h>
 
 #include <unistd.h>
@@ -26,7 +26,7 @@ using testing_support::SourcePath;
 constexpr double kVin = 48, kVo = 12, kFs = 500e3, kCoss = 1e-9;
 
 // The inductance below which the high-side turn-on reaches zero voltage, in
-// closed form (REFERENCES.md sec. 1 and 2; Erickson & Maksimovic 2001 ch. 2
+// closed form (netlists/references.md sec. 1 and 2; Erickson & Maksimovic 2001 ch. 2
 // for the ripple; Vorperian 1988 for the resonant transition). With
 // D = Vo/Vin, the current into the node at the turn-on is
 //   I0(L) = dI/2 - Io = a/L - Io,  a = (Vin - Vo)·D/(2·fs),
@@ -41,7 +41,7 @@ double CriticalInductance(double io, double coss) {
   return 1 / (x * x);
 }
 
-// The closed-form energy margin of REFERENCES.md sec. 2 in the units of
+// The closed-form energy margin of netlists/references.md sec. 2 in the units of
 // zvs_energy_margin: (1/2·L·I0² - Qoss·(Vin - 2·Vo)) / (Qoss·Vin), Qoss = Coss·Vin.
 double ClosedFormMargin(double l, double io, double coss) {
   double i0 = (kVin - kVo) * (kVo / kVin) / (2 * l * kFs) - io;
@@ -87,7 +87,7 @@ const EdgeTolerance& HighOn(const ToleranceSummary& s) {
 
 // Only L varies, normally, sigma 10 % of nominal; a sample passes when its
 // measured energy margin is >= 0 (pass="energy", the condition of sec. 2).
-// The analytic yield is Phi((L_crit - L_nom)/sigma) (REFERENCES.md sec. 12).
+// The analytic yield is Phi((L_crit - L_nom)/sigma) (netlists/references.md sec. 12).
 // 20 samples per point keep each test at a few seconds; at 99 % confidence
 // the Wilson interval (E. B. Wilson, JASA 22, 1927) is then about ±0.2 wide
 // around yields near 1/2, wide enough to absorb the few per cent by which the
