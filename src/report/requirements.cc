@@ -108,6 +108,25 @@ std::string Check(const RequirementSpec& r, const EdgeMeasurement& e, const Marg
   return "";
 }
 
+// The problems of a requirement at one point's measured edges ("not measured"
+// when the point has no such edge).
+std::vector<std::string> EdgeProblems(const RequirementSpec& r, const PointResult& result,
+                                      const MarginSource& margin, const WindowColumns& window) {
+  std::vector<std::string> problems;
+  bool any_edge = false;
+  for (const EdgeMeasurement& e : result.edges) {
+    if (e.edge != r.edge || (!r.cell.empty() && !SameName(e.cell, r.cell))) continue;
+    any_edge = true;
+    std::string problem = Check(r, e, margin, window);
+    if (!problem.empty()) problems.push_back(problem);
+  }
+  if (!any_edge) {
+    problems.push_back("edge " + (r.cell.empty() ? r.edge : r.cell + "." + r.edge) +
+                       " not measured");
+  }
+  return problems;
+}
+
 bool IsToleranceKind(RequirementSpec::Kind k) {
   return k == RequirementSpec::Kind::kYield || k == RequirementSpec::Kind::kWorstMargin;
 }
@@ -184,21 +203,10 @@ std::vector<RequirementVerdict> EvaluateRequirements(const ReportBasis& input) {
         continue;
       }
       ++v.checked;
-      std::vector<std::string> problems;
-      bool any_edge = IsToleranceKind(r.kind);
-      if (any_edge) {
-        problems = ToleranceProblems(r, input.tolerance.Find(point.index),
-                                     input.tolerance.confidence);
-      }
-      for (const EdgeMeasurement& e : any_edge ? std::vector<EdgeMeasurement>{} : result.edges) {
-        if (e.edge != r.edge || (!r.cell.empty() && !SameName(e.cell, r.cell))) continue;
-        any_edge = true;
-        std::string problem = Check(r, e, margin, window);
-        if (!problem.empty()) problems.push_back(problem);
-      }
-      if (!any_edge)
-        problems.push_back("edge " + (r.cell.empty() ? r.edge : r.cell + "." + r.edge) +
-                           " not measured");
+      std::vector<std::string> problems =
+          IsToleranceKind(r.kind)
+              ? ToleranceProblems(r, input.tolerance.Find(point.index), input.tolerance.confidence)
+              : EdgeProblems(r, result, margin, window);
       if (problems.empty()) continue;
       ++v.failing;
       if (v.details.size() < kMaxDetails) {
