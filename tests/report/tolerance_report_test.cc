@@ -5,6 +5,7 @@
 #include <sstream>
 
 #include "report/requirements.h"
+#include "report/summary_xml.h"
 #include "report_fixture.h"
 
 namespace zvsmap {
@@ -142,6 +143,27 @@ TEST_F(ToleranceReportTest, RequirementsOnYieldAndWorstMargin) {
   spec_.requirements[2].min = 0;
   v = EvaluateRequirements(basis);
   EXPECT_FALSE(v[2].held);
+}
+
+TEST_F(ToleranceReportTest, SummaryXmlCarriesTheWorstCornerAndTheYield) {
+  std::vector<Point> nominal = {points_[0]};
+  std::vector<PointResult> nominal_results = {results_[0]};
+  ReportBasis basis(ReportInput{spec_, tmpl_, nominal, nominal_results});
+  basis.tolerance = Summary();
+  pugi::xml_document doc;
+  BuildSummaryXml(basis, {}, &doc);
+  pugi::xml_node block = doc.select_node("/zvs-summary/tolerances").node();
+  ASSERT_TRUE(block);
+  EXPECT_STREQ(block.attribute("pass").value(), "energy");
+  EXPECT_STREQ(block.child("vary").attribute("spread").value(), "normal");
+  pugi::xml_node e = block.select_node("point[@index='0']/edge[@name='leg.high_on']").node();
+  ASSERT_TRUE(e);
+  EXPECT_STREQ(e.attribute("worst-energy-corner").value(), "L+");
+  EXPECT_DOUBLE_EQ(e.attribute("worst-energy-margin").as_double(), -0.1);
+  EXPECT_EQ(e.attribute("samples").as_int(), 10);
+  EXPECT_EQ(e.attribute("passes").as_int(), 8);
+  EXPECT_NEAR(e.attribute("yield-low").as_double(), 0.490162, 1e-6);
+  EXPECT_EQ(e.attribute("worst-sample").as_int(), 5);
 }
 
 }  // namespace
