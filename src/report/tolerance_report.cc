@@ -147,9 +147,8 @@ void WriteToleranceCsv(std::ostream& out, const ToleranceSummary& summary) {
           << CsvNumber(t.worst_energy_margin) << ',' << CsvField(t.worst_energy_corner) << ','
           << CsvNumber(t.worst_timing_margin_s) << ',' << CsvField(t.worst_timing_corner) << ','
           << t.samples << ',' << t.passes << ',' << t.unmeasured << ',' << PassName(summary.pass)
-          << ',' << CsvNumber(t.yield) << ','
-          << (t.samples > 0 ? CsvNumber(t.interval.low) : "") << ','
-          << (t.samples > 0 ? CsvNumber(t.interval.high) : "") << ','
+          << ',' << CsvNumber(t.yield) << ',' << (t.samples > 0 ? CsvNumber(t.interval.low) : "")
+          << ',' << (t.samples > 0 ? CsvNumber(t.interval.high) : "") << ','
           << CsvNumber(summary.confidence) << ','
           << (t.worst_sample >= 0 ? std::to_string(t.worst_sample) : "") << ','
           << CsvNumber(t.worst_sample_margin) << '\n';

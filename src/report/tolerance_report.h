@@ -22,16 +22,16 @@ namespace zvsmap {
 struct EdgeTolerance {
   static constexpr double kNaN = std::numeric_limits<double>::quiet_NaN();
   EdgeKey key;
-  int corners = 0;  ///< corners that measured the edge
+  int corners = 0;                    ///< corners that measured the edge
   double worst_energy_margin = kNaN;  ///< least zvs_energy_margin over the corners
   std::string worst_energy_corner;    ///< e.g. "L+ Coss-" (DescribeCorner)
   /// Least of zvs_timing_margin_early_s and _late_s over the corners.
   double worst_timing_margin_s = kNaN;
   std::string worst_timing_corner;
-  int samples = 0;     ///< samples that measured the edge
-  int passes = 0;      ///< of those, passing (ToleranceSpec::pass)
-  int unmeasured = 0;  ///< samples that failed, did not run or lack the edge
-  double yield = kNaN;       ///< passes / samples
+  int samples = 0;              ///< samples that measured the edge
+  int passes = 0;               ///< of those, passing (ToleranceSpec::pass)
+  int unmeasured = 0;           ///< samples that failed, did not run or lack the edge
+  double yield = kNaN;          ///< passes / samples
   ProportionInterval interval;  ///< Wilson score interval at the block's confidence
   int worst_sample = -1;        ///< the sample with the least margin (MarginOf), -1 if none
   double worst_sample_margin = kNaN;

@@ -56,7 +56,7 @@ std::vector<uint32_t> CornerMasks(int k, ToleranceSpec::Corners mode) {
   for (uint32_t run = 0; run < (1u << kBaseFactors); ++run) {
     out.push_back(FractionalRun(run, k, generators));
   }
-  out.push_back(0);               // all low
+  out.push_back(0);              // all low
   out.push_back((1u << k) - 1);  // all high
   std::sort(out.begin(), out.end());
   out.erase(std::unique(out.begin(), out.end()), out.end());
@@ -150,12 +150,11 @@ bool ExpandTolerances(const ToleranceSpec& spec,
   std::vector<uint32_t> corners = CornerMasks(static_cast<int>(spec.vary.size()), spec.corners);
   size_t per = corners.size() + static_cast<size_t>(spec.samples);
   if (n > 0 && (per + 1) > max_points / n) {
-    *error = Diagnostic(spec.where, "the sweep's " + std::to_string(n) + " points with " +
-                                        std::to_string(per) + " tolerance variants each are " +
-                                        std::to_string(n * (per + 1)) +
-                                        " points, more than the limit of " +
-                                        std::to_string(max_points) +
-                                        " (raise <limits max-points> or use --max-points)");
+    *error = Diagnostic(spec.where,
+                        "the sweep's " + std::to_string(n) + " points with " + std::to_string(per) +
+                            " tolerance variants each are " + std::to_string(n * (per + 1)) +
+                            " points, more than the limit of " + std::to_string(max_points) +
+                            " (raise <limits max-points> or use --max-points)");
     return false;
   }
   points->reserve(n * (per + 1));
@@ -164,8 +163,8 @@ bool ExpandTolerances(const ToleranceSpec& spec,
     size_t base = n + i * per;
     for (size_t c = 0; c < corners.size(); ++c) {
       VariantTag tag{i, VariantTag::Kind::kCorner, corners[c]};
-      points->push_back(MakeVariant(spec, nominal, nominal_values[i], CornerOffsets(spec, corners[c]),
-                                    tag, base + c));
+      points->push_back(MakeVariant(spec, nominal, nominal_values[i],
+                                    CornerOffsets(spec, corners[c]), tag, base + c));
     }
     for (int s = 0; s < spec.samples; ++s) {
       unsigned number = static_cast<unsigned>(s);

@@ -65,8 +65,9 @@ std::string DescribeCorner(const ToleranceSpec& spec, uint32_t mask);
 /// parameters set to nominal_values[i][j] moved by the offsets (derived
 /// values keep their nominal values) and its VariantTag. Fails when the total
 /// exceeds `max_points` (error at the block).
-bool ExpandTolerances(const ToleranceSpec& spec, const std::vector<std::vector<double>>& nominal_values,
-                      size_t max_points, std::vector<Point>* points, Diagnostic* error);
+bool ExpandTolerances(const ToleranceSpec& spec,
+                      const std::vector<std::vector<double>>& nominal_values, size_t max_points,
+                      std::vector<Point>* points, Diagnostic* error);
 
 /// Variants per nominal point: corners plus samples.
 size_t VariantsPerPoint(const ToleranceSpec& spec);

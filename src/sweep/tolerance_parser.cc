@@ -64,8 +64,7 @@ class BlockReader {
     if (*value != std::floor(*value) || *value < min || *value > max) {
       return fail_(node, name,
                    "'" + std::string(name) + "' must be a whole number from " + FormatNumber(min) +
-                       " to " + FormatNumber(max) + ", got '" + node.attribute(name).value() +
-                       "'");
+                       " to " + FormatNumber(max) + ", got '" + node.attribute(name).value() + "'");
     }
     return true;
   }
@@ -137,10 +136,11 @@ bool BlockReader::Block(pugi::xml_node node, ToleranceSpec* out) const {
     }
     std::string name = child.name();
     if (name != "vary") {
-      return fail_(child, nullptr, "unknown element <" + name + "> in <tolerances>" +
-                                       (ClosestName(name, std::vector<std::string>{"vary"}).empty()
-                                            ? ""
-                                            : " (did you mean <vary>?)"));
+      return fail_(child, nullptr,
+                   "unknown element <" + name + "> in <tolerances>" +
+                       (ClosestName(name, std::vector<std::string>{"vary"}).empty()
+                            ? ""
+                            : " (did you mean <vary>?)"));
     }
     if (child.first_child()) return fail_(child, nullptr, "<vary> takes no content");
     VarySpec vary;
@@ -192,9 +192,9 @@ bool BlockReader::Vary(pugi::xml_node node, const ToleranceSpec& block, VarySpec
   }
   if (!Number(node, "within", true, &out->within, &out->relative)) return false;
   if (out->within <= 0) {
-    return fail_(node, "within",
-                 "'within' must be positive, got '" +
-                     std::string(node.attribute("within").value()) + "'");
+    return fail_(
+        node, "within",
+        "'within' must be positive, got '" + std::string(node.attribute("within").value()) + "'");
   }
   if (out->relative && out->within >= 1) {
     return fail_(node, "within",
@@ -209,7 +209,8 @@ bool BlockReader::Vary(pugi::xml_node node, const ToleranceSpec& block, VarySpec
   } else if (spread == "corners") {
     out->spread = VarySpec::Spread::kCorners;
   } else {
-    std::string best = ClosestName(spread, std::vector<std::string>{"uniform", "normal", "corners"});
+    std::string best =
+        ClosestName(spread, std::vector<std::string>{"uniform", "normal", "corners"});
     return fail_(node, "spread",
                  "unknown spread '" + spread + "' (use 'uniform', 'normal' or 'corners')" +
                      (best.empty() ? "" : "; did you mean '" + best + "'?"));
@@ -222,9 +223,9 @@ bool BlockReader::Vary(pugi::xml_node node, const ToleranceSpec& block, VarySpec
     bool sigma_relative = false;
     if (!Number(node, "sigma", true, &out->sigma, &sigma_relative)) return false;
     if (out->sigma <= 0) {
-      return fail_(node, "sigma",
-                   "'sigma' must be positive, got '" +
-                       std::string(node.attribute("sigma").value()) + "'");
+      return fail_(
+          node, "sigma",
+          "'sigma' must be positive, got '" + std::string(node.attribute("sigma").value()) + "'");
     }
     if (sigma_relative != out->relative) {
       return fail_(node, "sigma",
@@ -257,7 +258,9 @@ std::string ToleranceSpec::Canonical() const {
   if (!used) return "";
   std::string out = "tolerances seed=" + std::to_string(seed) +
                     " samples=" + std::to_string(samples) + " corners=" +
-                    (corners == Corners::kAuto ? "auto" : corners == Corners::kAll ? "all" : "none");
+                    (corners == Corners::kAuto  ? "auto"
+                     : corners == Corners::kAll ? "all"
+                                                : "none");
   for (const VarySpec& v : vary) {
     out += "\nvary " + Lower(v.param) + " within=" + FormatNumber(v.within) +
            (v.relative ? "rel" : "abs") + " spread=" + SpreadName(v.spread) +
@@ -280,8 +283,7 @@ bool CheckToleranceParams(const SweepSpec& spec, Diagnostic* error) {
     for (const AxisGroup& g : spec.groups) {
       for (const AxisSpec& a : g.axes) {
         if (a.device_roles.empty() && SameName(a.param, v.param)) {
-          return failed("'" + v.param + "' is a swept axis (line " +
-                        std::to_string(a.where.line) +
+          return failed("'" + v.param + "' is a swept axis (line " + std::to_string(a.where.line) +
                         "); a tolerance varies a parameter around each point, so vary one the "
                         "axes do not sweep");
         }
@@ -307,8 +309,8 @@ bool CheckToleranceParams(const SweepSpec& spec, Diagnostic* error) {
                               : "";
     if (!missing.empty()) {
       *error = Diagnostic(r.where, std::string("<require ") +
-                                       (yield ? "yield-min" : "worst-margin-min") +
-                                       "=...> needs " + missing);
+                                       (yield ? "yield-min" : "worst-margin-min") + "=...> needs " +
+                                       missing);
       return false;
     }
   }

@@ -2,7 +2,6 @@
 // inductance against the closed-form yield, and the worst corner against the
 // closed form's (netlists/references.md sec. 2 and 12).
 #include <gtest/gtest.h>
-
 #include <unistd.h>
 
 #include <cmath>
@@ -60,13 +59,15 @@ Ran RunNominal(double io, double l, const std::string& block) {
   std::string dir = ::testing::TempDir() + "/tolerance_yield_" + std::to_string(::getpid());
   std::filesystem::create_directories(dir);
   std::string path = dir + "/sweep.xml";
-  std::ofstream(path) << "<sweep>\n  <template file=\"" << SourcePath("netlists/buck_halfbridge.cir")
+  std::ofstream(path) << "<sweep>\n  <template file=\""
+                      << SourcePath("netlists/buck_halfbridge.cir")
                       << "\"/>\n  <set param=\"Vin\" value=\"48\"/>\n"
                       << "  <set param=\"Vout\" value=\"12\"/>\n"
                       << "  <set param=\"fsw\" value=\"500k\"/>\n"
                       << "  <set param=\"L\" value=\"" << l << "\"/>\n"
                       << "  <axis param=\"Iout\" values=\"" << io << "\"/>\n"
-                      << "  <simulation probe=\"off\"/>\n" << block << "</sweep>\n";
+                      << "  <simulation probe=\"off\"/>\n"
+                      << block << "</sweep>\n";
   Ran ran;
   std::vector<Diagnostic> errors;
   if (!PrepareSweep(path, 0, &ran.sweep, &errors)) throw Error(errors.front().Format());
@@ -100,25 +101,27 @@ void CheckYield(double io, double l_over_crit) {
   double analytic = NormalCdf((l_crit - l_nom) / sigma);
   ASSERT_GT(analytic, 0.05);
   ASSERT_LT(analytic, 0.95);
-  Ran ran = RunNominal(io, l_nom,
-                "  <tolerances seed=\"2027\" samples=\"20\" corners=\"none\" pass=\"energy\" "
-                "confidence=\"99%\">\n"
-                "    <vary param=\"L\" within=\"40%\" spread=\"normal\" sigma=\"10%\"/>\n"
-                "  </tolerances>\n");
+  Ran ran =
+      RunNominal(io, l_nom,
+                 "  <tolerances seed=\"2027\" samples=\"20\" corners=\"none\" pass=\"energy\" "
+                 "confidence=\"99%\">\n"
+                 "    <vary param=\"L\" within=\"40%\" spread=\"normal\" sigma=\"10%\"/>\n"
+                 "  </tolerances>\n");
   ASSERT_EQ(ran.sweep.points.size(), 21u);
   for (const PointResult& r : ran.results) {
     ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
   }
-  ToleranceSummary s = SummarizeTolerances(ran.sweep.spec.tolerances, ran.sweep.points,
-                                           ran.results, ChooseMargin(ran.results));
+  ToleranceSummary s = SummarizeTolerances(ran.sweep.spec.tolerances, ran.sweep.points, ran.results,
+                                           ChooseMargin(ran.results));
   const EdgeTolerance& t = HighOn(s);
   EXPECT_EQ(t.samples, 20);
   EXPECT_LE(t.interval.low, analytic) << "yield " << t.yield << " of " << t.samples;
   EXPECT_GE(t.interval.high, analytic) << "yield " << t.yield << " of " << t.samples;
-  std::printf("Io %g A, L_nom %.4g uH, L_crit %.4g uH: analytic yield %.3f, simulated %d/%d = "
-              "%.3f, 99%% interval [%.3f, %.3f]\n",
-              io, l_nom * 1e6, l_crit * 1e6, analytic, t.passes, t.samples, t.yield,
-              t.interval.low, t.interval.high);
+  std::printf(
+      "Io %g A, L_nom %.4g uH, L_crit %.4g uH: analytic yield %.3f, simulated %d/%d = "
+      "%.3f, 99%% interval [%.3f, %.3f]\n",
+      io, l_nom * 1e6, l_crit * 1e6, analytic, t.passes, t.samples, t.yield, t.interval.low,
+      t.interval.high);
 }
 
 TEST(ToleranceYieldReference, LightLoadBelowTheCriticalInductance) { CheckYield(2, 0.95); }
@@ -131,10 +134,10 @@ TEST(ToleranceYieldReference, HeavyLoadAboveTheCriticalInductance) { CheckYield(
 TEST(ToleranceYieldReference, WorstCornerIsTheClosedFormsWorst) {
   const double io = 4, l_nom = 1.2e-6;
   Ran ran = RunNominal(io, l_nom,
-                "  <tolerances corners=\"all\" pass=\"energy\">\n"
-                "    <vary param=\"L\" within=\"20%\" spread=\"corners\"/>\n"
-                "    <vary param=\"Coss\" within=\"20%\" spread=\"corners\"/>\n"
-                "  </tolerances>\n");
+                       "  <tolerances corners=\"all\" pass=\"energy\">\n"
+                       "    <vary param=\"L\" within=\"20%\" spread=\"corners\"/>\n"
+                       "    <vary param=\"Coss\" within=\"20%\" spread=\"corners\"/>\n"
+                       "  </tolerances>\n");
   ASSERT_EQ(ran.sweep.points.size(), 5u);
   std::string predicted;
   double least = 1e300;
@@ -147,8 +150,8 @@ TEST(ToleranceYieldReference, WorstCornerIsTheClosedFormsWorst) {
       }
     }
   }
-  ToleranceSummary s = SummarizeTolerances(ran.sweep.spec.tolerances, ran.sweep.points,
-                                           ran.results, ChooseMargin(ran.results));
+  ToleranceSummary s = SummarizeTolerances(ran.sweep.spec.tolerances, ran.sweep.points, ran.results,
+                                           ChooseMargin(ran.results));
   const EdgeTolerance& t = HighOn(s);
   EXPECT_EQ(t.corners, 4);
   EXPECT_EQ(t.worst_energy_corner, predicted);

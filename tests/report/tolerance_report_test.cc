@@ -32,8 +32,8 @@ class ToleranceReportTest : public ::testing::Test {
     l.sigma = 0.05;
     t.vary = {l};
     Add(Nominal(), 0.2, 10e-9);
-    Add(Variant(VariantTag::Kind::kCorner, 0), 0.3, 12e-9);   // L-
-    Add(Variant(VariantTag::Kind::kCorner, 1), -0.1, 4e-9);   // L+
+    Add(Variant(VariantTag::Kind::kCorner, 0), 0.3, 12e-9);  // L-
+    Add(Variant(VariantTag::Kind::kCorner, 1), -0.1, 4e-9);  // L+
     const double margins[10] = {0.1, 0.2, -0.05, 0.3, 0.15, -0.2, 0.05, 0.25, 0.12, 0.02};
     for (unsigned s = 0; s < 10; ++s) {
       Add(Variant(VariantTag::Kind::kSample, s), margins[s], 8e-9);
@@ -55,11 +55,10 @@ class ToleranceReportTest : public ::testing::Test {
     PointResult r;
     r.index = p.index;
     r.status = PointStatus::kOk;
-    r.edges.push_back(testing_report::MakeEdge(
-        "leg", "high_on", 1,
-        {{"zvs_energy_margin", energy_margin},
-         {"zvs_timing_margin_early_s", 20e-9},
-         {"zvs_timing_margin_late_s", timing_late_s}}));
+    r.edges.push_back(testing_report::MakeEdge("leg", "high_on", 1,
+                                               {{"zvs_energy_margin", energy_margin},
+                                                {"zvs_timing_margin_early_s", 20e-9},
+                                                {"zvs_timing_margin_late_s", timing_late_s}}));
     points_.push_back(std::move(p));
     results_.push_back(std::move(r));
   }
@@ -132,7 +131,9 @@ TEST_F(ToleranceReportTest, RequirementsOnYieldAndWorstMargin) {
   std::vector<RequirementVerdict> v = EvaluateRequirements(basis);
   ASSERT_EQ(v.size(), 3u);
   EXPECT_FALSE(v[0].held);
-  EXPECT_EQ(v[0].title, "sweeps/synthetic.xml:9: every cell's high_on ZVS yield >= 99% at each point over the whole grid");
+  EXPECT_EQ(v[0].title,
+            "sweeps/synthetic.xml:9: every cell's high_on ZVS yield >= 99% at each point over the "
+            "whole grid");
   ASSERT_EQ(v[0].details.size(), 1u);
   EXPECT_NE(v[0].details[0].find("leg.high_on yield 80% (49.02% to 94.33% at 95%) over 10 "
                                  "samples, worst sample 5"),

@@ -95,8 +95,7 @@ TEST_F(TolerancePlanTest, UnknownVariedParameterIsRefusedWithItsLine) {
   ASSERT_EQ(errors.size(), 1u);
   EXPECT_EQ(errors[0].where.line, 4);
   EXPECT_NE(errors[0].message.find("unknown parameter 'Cosss'"), std::string::npos);
-  EXPECT_NE(errors[0].message.find("did you mean 'coss'?"), std::string::npos)
-      << errors[0].message;
+  EXPECT_NE(errors[0].message.find("did you mean 'coss'?"), std::string::npos) << errors[0].message;
 }
 
 }  // namespace

@@ -99,15 +99,15 @@ TEST_F(ToleranceParserTest, BadVaryNamesItsLine) {
 TEST_F(ToleranceParserTest, NumbersAreJudgedLikeEveryOther) {
   // "50MEGX" reads as 50MEG in SPICE, which is not what it looks like
   // (core/spice_number), so it is refused here as in every other attribute.
-  std::string message = Error(Sweep(Block(" seed=\"1\" samples=\"4\"",
-                                          "    <vary param=\"L\" within=\"50MEGX\"/>\n")));
+  std::string message = Error(
+      Sweep(Block(" seed=\"1\" samples=\"4\"", "    <vary param=\"L\" within=\"50MEGX\"/>\n")));
   EXPECT_EQ(message.rfind("7: in attribute 'within': SPICE ignores the letters 'X'", 0), 0u)
       << message;
   SweepSpec spec;
   Diagnostic error;
-  ASSERT_TRUE(ParseSweepText(
-      Sweep(Block(" corners=\"all\"", "    <vary param=\"L\" within=\"50nH\"/>\n")), kPath, &spec,
-      &error))
+  ASSERT_TRUE(
+      ParseSweepText(Sweep(Block(" corners=\"all\"", "    <vary param=\"L\" within=\"50nH\"/>\n")),
+                     kPath, &spec, &error))
       << error.Format();
   ASSERT_EQ(spec.warnings.size(), 1u);  // the unit letters SPICE ignores
   EXPECT_EQ(spec.warnings[0].where.line, 7);
@@ -141,8 +141,8 @@ TEST_F(ToleranceParserTest, BadBlockNamesItsLine) {
 TEST_F(ToleranceParserTest, UnknownParameterGetsADidYouMean) {
   SweepSpec spec;
   Diagnostic error;
-  ASSERT_TRUE(ParseSweepText(Sweep(Block("", "    <vary param=\"Lx\" within=\"10%\"/>\n")),
-                             kPath, &spec, &error))
+  ASSERT_TRUE(ParseSweepText(Sweep(Block("", "    <vary param=\"Lx\" within=\"10%\"/>\n")), kPath,
+                             &spec, &error))
       << error.Format();
   std::vector<Diagnostic> problems = CheckParamsKnown(spec, {"vin", "iout", "td", "l", "lx1"});
   ASSERT_EQ(problems.size(), 1u);
