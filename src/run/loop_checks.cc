@@ -11,7 +11,7 @@ namespace zvsmap {
 namespace {
 
 // Where the sweep itself sets parameter `name` (an axis, a fixed or a derived
-// value), or nullptr.
+// value, a tolerance), or nullptr.
 const SourceLocation* WhereSweepSets(const SweepSpec& spec, const std::string& name) {
   for (const auto& g : spec.groups) {
     for (const auto& a : g.axes) {
@@ -23,6 +23,9 @@ const SourceLocation* WhereSweepSets(const SweepSpec& spec, const std::string& n
   }
   for (const auto& d : spec.derived) {
     if (SameName(d.param, name)) return &d.where;
+  }
+  for (const auto& v : spec.tolerances.vary) {
+    if (SameName(v.param, name)) return &v.where;
   }
   return nullptr;
 }

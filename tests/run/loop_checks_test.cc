@@ -47,6 +47,15 @@ TEST_F(LoopChecksTest, SweepingTheControlOfARegulatedLoop) {
   EXPECT_NE(problems[0].message.find("loop=\"open\""), std::string::npos);
 }
 
+TEST_F(LoopChecksTest, ATolerancedControlOfARegulatedLoop) {
+  Load("  <axis param=\"L\" values=\"1u 2u\"/>\n  <tolerances seed=\"1\" samples=\"4\">\n"
+       "    <vary param=\"D\" within=\"1%\" spread=\"uniform\"/>\n  </tolerances>\n",
+       Regulated());
+  std::vector<Diagnostic> problems = Check();
+  ASSERT_EQ(problems.size(), 1u);
+  EXPECT_EQ(problems[0].where.line, 5);
+}
+
 TEST_F(LoopChecksTest, APeriodThatFollowsTheControl) {
   Load("", Regulated("*@ period 1/fsw + D*1n\n"));
   std::vector<Diagnostic> problems = Check();
