@@ -33,11 +33,14 @@ bool KeyValues(const std::vector<std::string>& words, size_t skip, const SourceL
   return true;
 }
 
+// Every key of `kv` is one of `known` or `optional`, and every `known` key is there.
 bool OnlyKeys(const std::map<std::string, std::string>& kv, const std::vector<std::string>& known,
-              const std::string& kind, const SourceLocation& where, Diagnostic* error) {
+              const std::string& kind, const SourceLocation& where, Diagnostic* error,
+              const std::vector<std::string>& optional = {}) {
   for (const auto& [key, value] : kv) {
     bool ok = false;
     for (const auto& k : known) ok = ok || k == key;
+    for (const auto& k : optional) ok = ok || k == key;
     if (!ok) {
       *error = At(where, "unknown key '" + key + "' in '*@ " + kind + "'");
       return false;
@@ -86,6 +89,20 @@ bool ParseProduct(const std::string& text, const SourceLocation& where, PowerPro
   return true;
 }
 
+// A control bound is spelled as a plain number with at most a scale factor:
+// a unit letter ("0.95V") or a misread suffix ("1MEGA") is refused, as no
+// warning reaches the user from a template's annotation.
+bool PlainBound(const std::map<std::string, std::string>& kv, const char* key,
+                const SourceLocation& where, Diagnostic* error) {
+  auto it = kv.find(key);
+  if (it == kv.end()) return true;  // missing: the range check says so
+  NumberSpelling spelling = JudgeSpiceSpelling(it->second);
+  if (spelling.kind == NumberSpelling::Kind::kPlain) return true;
+  *error = At(where, "'*@ control' " + std::string(key) + "=" + it->second + ": " +
+                         spelling.message + "; write a plain number");
+  return false;
+}
+
 bool ParseControl(const std::vector<std::string>& words, const SourceLocation& where,
                   RegulationSpec* out, Diagnostic* error) {
   std::map<std::string, std::string> kv;
@@ -94,15 +111,24 @@ bool ParseControl(const std::vector<std::string>& words, const SourceLocation& w
     return false;
   }
   if (!KeyValues(words, 2, where, &kv, error) ||
-      !OnlyKeys(kv, {"min", "max"}, "control", where, error)) {
+      !OnlyKeys(kv, {"min", "max"}, "control", where, error, {"default"})) {
     return false;
   }
+  if (!PlainBound(kv, "min", where, error) || !PlainBound(kv, "max", where, error)) return false;
   auto lo = ParseSpiceNumber(kv["min"]), hi = ParseSpiceNumber(kv["max"]);
   if (!lo || !hi || !(*lo < *hi)) {
-    *error = At(where, "'*@ control' needs numbers min < max, got min=" + kv["min"] +
-                           " max=" + kv["max"]);
+    *error = At(where,
+                "'*@ control' needs numbers min < max, got min=" + kv["min"] + " max=" + kv["max"]);
     return false;
   }
+  auto by_default = kv.find("default");
+  std::string loop = by_default == kv.end() ? "regulated" : Lower(by_default->second);
+  if (loop != "regulated" && loop != "open") {
+    *error = At(where, "'*@ control' default=" + by_default->second +
+                           ": expected default=regulated or default=open");
+    return false;
+  }
+  out->regulated_by_default = loop == "regulated";
   out->param = Lower(words[1]);
   out->min = *lo;
   out->max = *hi;
@@ -128,8 +154,8 @@ bool ParseRegulate(const std::vector<std::string>& words, const SourceLocation& 
   return true;
 }
 
-bool ParsePower(const std::vector<std::string>& words, const SourceLocation& where,
-                PowerSpec* out, Diagnostic* error) {
+bool ParsePower(const std::vector<std::string>& words, const SourceLocation& where, PowerSpec* out,
+                Diagnostic* error) {
   std::map<std::string, std::string> kv;
   if (!KeyValues(words, 1, where, &kv, error) ||
       !OnlyKeys(kv, {"input", "output"}, "power", where, error)) {
@@ -171,6 +197,12 @@ std::vector<std::string> RegulationVectors(const RegulationSpec& regulation,
     out.push_back(p->current);
   }
   return out;
+}
+
+bool RunsRegulated(const RegulationSpec& regulation, const SimulationSettings& simulation) {
+  using Loop = SimulationSettings::Loop;
+  if (!regulation.declared() || simulation.loop == Loop::kOpen) return false;
+  return simulation.loop == Loop::kRegulated || regulation.regulated_by_default;
 }
 
 }  // namespace zvsmap

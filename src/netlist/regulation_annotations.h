@@ -1,7 +1,7 @@
 // The regulation annotations of a template: the control parameter a closed
 // loop would adjust, the quantity it holds at a set point, and the two power
 // ports of the operating-point record.
-//   *@ control D min=0.02 max=0.95
+//   *@ control D min=0.02 max=0.95 [default=open]
 //   *@ regulate v(out) target=Vout
 //   *@ power input=-v(in)*i(vsupply) output=v(out)*i(l1)
 #pragma once
@@ -10,6 +10,7 @@
 #include <vector>
 
 #include "core/diagnostic.h"
+#include "sweep/sweep_spec.h"
 
 namespace zvsmap {
 
@@ -17,13 +18,23 @@ namespace zvsmap {
 /// `vector` at the value of parameter `target`, adjusting parameter `param`
 /// within [min, max].
 struct RegulationSpec {
-  std::string param;   ///< the control parameter, lower-case (e.g. "d")
+  std::string param;  ///< the control parameter, lower-case (e.g. "d")
   double min = 0, max = 1;
+  /// `default=open` makes a sweep without <simulation loop=...> run open loop
+  /// (regulation on request only), for a template whose control cannot hold
+  /// the set point in every mode it offers.
+  bool regulated_by_default = true;
   std::string vector;  ///< the regulated vector, lower-case (e.g. "v(out)")
   std::string target;  ///< the parameter holding the set point, lower-case
   SourceLocation control_where, regulate_where;
   bool declared() const { return !param.empty(); }
 };
+
+/// True when the points run regulated: the template declares a control and
+/// the sweep's <simulation> asks for the regulated loop, or asks for neither
+/// and the control does not say `default=open`. The one place this
+/// rule lives (the evaluator, the loop checks and the content hash ask it).
+bool RunsRegulated(const RegulationSpec& regulation, const SimulationSettings& simulation);
 
 /// One power port: P(t) = sign * v(t) * i(t), averaged over the period.
 struct PowerProduct {

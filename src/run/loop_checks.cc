@@ -52,10 +52,6 @@ bool PeriodFollowsControl(const Template& tmpl, const Point& point) {
 
 }  // namespace
 
-bool RunsRegulated(const SweepSpec& spec, const Template& tmpl) {
-  return tmpl.regulation.declared() && spec.simulation.loop != SimulationSettings::Loop::kOpen;
-}
-
 std::vector<Diagnostic> CheckLoop(const SweepSpec& spec, const Template& tmpl,
                                   const std::vector<Point>& points) {
   std::vector<Diagnostic> out;
@@ -64,23 +60,26 @@ std::vector<Diagnostic> CheckLoop(const SweepSpec& spec, const Template& tmpl,
     out.push_back({spec.simulation.where,
                    "loop=\"regulated\" needs a template that declares its control and the "
                    "quantity it regulates ('*@ control <param> min= max=' and '*@ regulate "
-                   "v(<node>) target=<param>'); " + tmpl.path + " declares neither",
+                   "v(<node>) target=<param>'); " +
+                       tmpl.path + " declares neither",
                    {}});
     return out;
   }
-  if (!RunsRegulated(spec, tmpl)) return out;
+  if (!RunsRegulated(r, spec.simulation)) return out;
   if (const SourceLocation* where = WhereSweepSets(spec, r.param)) {
     out.push_back({*where,
-                   "'" + r.param + "' is the template's control parameter: in a regulated loop "
-                   "the solve sets it to hold " + r.vector + " at '" + r.target +
-                   "'; to set it yourself, use <simulation loop=\"open\"/>",
+                   "'" + r.param +
+                       "' is the template's control parameter: in a regulated loop "
+                       "the solve sets it to hold " +
+                       r.vector + " at '" + r.target +
+                       "'; to set it yourself, use <simulation loop=\"open\"/>",
                    {}});
   }
   if (!points.empty() && PeriodFollowsControl(tmpl, points.front())) {
     out.push_back({r.control_where,
                    "the switching period depends on the control parameter '" + r.param +
-                   "', which a regulated loop moves while the period stays fixed; use "
-                   "<simulation loop=\"open\"/> or a period that does not depend on it",
+                       "', which a regulated loop moves while the period stays fixed; use "
+                       "<simulation loop=\"open\"/> or a period that does not depend on it",
                    {}});
   }
   return out;

@@ -11,10 +11,6 @@
 
 namespace zvsmap {
 
-/// True when the points run regulated: the template declares a control and
-/// the sweep does not ask for open loop.
-bool RunsRegulated(const SweepSpec& spec, const Template& tmpl);
-
 /// Problems, each at its file:line: loop="regulated" on a template without a
 /// control; a regulated sweep that also sets the control parameter itself (an
 /// axis, a fixed value or a derived value); a switching period that depends on

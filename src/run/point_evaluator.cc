@@ -9,9 +9,9 @@
 #include "core/text.h"
 #include "handcalc/hand_calculation.h"
 #include "result/edge_identity.h"
-#include "sim/engine_messages.h"
 #include "run/operating_point_measure.h"
 #include "run/solver_ladder.h"
+#include "sim/engine_messages.h"
 #include "sim/steady_state.h"
 
 namespace zvsmap {
@@ -130,10 +130,10 @@ constexpr double kRegulationTolerance = 1e-4;
 
 // The control unknown of a regulated point: false (open loop) when the
 // template declares no control or the sweep asks for open loop.
-bool RegulatedControl(const Template& tmpl, const SimulationSettings& sim,
-                      const Variables& params, ControlUnknown* out) {
+bool RegulatedControl(const Template& tmpl, const SimulationSettings& sim, const Variables& params,
+                      ControlUnknown* out) {
   const RegulationSpec& r = tmpl.regulation;
-  if (!r.declared() || sim.loop == SimulationSettings::Loop::kOpen) return false;  // RunsRegulated
+  if (!RunsRegulated(r, sim)) return false;
   out->vector = r.vector;
   out->target = params.at(r.target);
   out->min = r.min;
@@ -276,9 +276,9 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
   ControlUnknown control;
   const bool regulated = RegulatedControl(tmpl_, sim, ev->params, &control);
   SteadyStateResult ss =
-      regulated ? FindRegulatedSteadyState(simulator, render, vectors, states, control, period,
-                                           options)
-                : FindPeriodicSteadyState(simulator, render, vectors, states, period, options);
+      regulated
+          ? FindRegulatedSteadyState(simulator, render, vectors, states, control, period, options)
+          : FindPeriodicSteadyState(simulator, render, vectors, states, period, options);
   RecordSettling(ss, tmpl_, &result.settle);
   if (!ss.ok) {
     result.reason = "while settling: " + MapEngineLines(ss.error, last_deck);
@@ -288,15 +288,19 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
   if (!ss.settled) {
     // Not measured: numbers from an unsettled period would look trustworthy.
     result.status = PointStatus::kUnsettled;
-    result.reason = "not settled after " + std::to_string(ss.periods) + " periods: residual " +
-                    FormatNumber(ss.residual) + " > tolerance " + FormatNumber(options.tolerance) +
-                    " (relative to the ripple" +
-                    (regulated ? std::string(", with ") + tmpl_.regulation.param + " held in [" +
-                                     FormatNumber(control.min) + ", " + FormatNumber(control.max) +
-                                     "] to regulate " + control.vector + " at " +
-                                     FormatNumber(control.target)
-                               : std::string()) +
-                    ")";
+    result.reason =
+        "not settled after " + std::to_string(ss.periods) + " periods: residual " +
+        FormatNumber(ss.residual) + " > tolerance " + FormatNumber(options.tolerance) +
+        " (relative to the ripple" +
+        (regulated ? std::string(", with ") + tmpl_.regulation.param + " held in [" +
+                         FormatNumber(control.min) + ", " + FormatNumber(control.max) +
+                         "] to regulate " + control.vector + " at " + FormatNumber(control.target)
+                   : std::string()) +
+        ")" +
+        (ss.control_pinned
+             ? "; " + tmpl_.regulation.param + " stopped at the bound " + FormatNumber(ss.control) +
+                   " of its range, so the set point is out of its reach"
+             : std::string());
     return finish();
   }
 
@@ -309,8 +313,8 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
   if (!out.ok) {
     simulator.SetMeasuring(true);
     out = RunFromState(simulator, render, vectors,
-                       SearchUnknowns(states, regulated ? &control : nullptr), period, measured,
-                       -1, &x, &why);
+                       SearchUnknowns(states, regulated ? &control : nullptr), period, measured, -1,
+                       &x, &why);
     result.settle.periods += measured;
   }
   if (!out.ok) {
