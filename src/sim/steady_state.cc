@@ -35,8 +35,15 @@ class Shooter {
   Shooter(Simulator& sim, const PeriodRenderer& render, const std::vector<std::string>& vectors,
           const std::vector<SlowState>& unknowns, size_t states, const ControlUnknown* control,
           double period, const SteadyStateOptions& opt, SteadyStateResult* result)
-      : sim_(sim), render_(render), vectors_(vectors), unknowns_(unknowns), n_(states),
-        control_(control), period_(period), opt_(opt), r_(result) {}
+      : sim_(sim),
+        render_(render),
+        vectors_(vectors),
+        unknowns_(unknowns),
+        n_(states),
+        control_(control),
+        period_(period),
+        opt_(opt),
+        r_(result) {}
 
   // Simulates `periods` from *z (possibly nudged, see RunFromState). False
   // (result filled) when a run fails or the period budget is spent.
@@ -242,8 +249,8 @@ double StepLimit(const Iterate& at, const std::vector<double>& dz,
                  const std::vector<SlowState>& unknowns, const ControlUnknown* control) {
   double lambda = 1;
   for (size_t i = 0; i < at.run.ripple.size(); ++i) {
-    double cap = std::max({10 * std::fabs(at.z[i]), 100 * at.run.ripple[i],
-                           1000 * unknowns[i].floor});
+    double cap =
+        std::max({10 * std::fabs(at.z[i]), 100 * at.run.ripple[i], 1000 * unknowns[i].floor});
     if (std::fabs(dz[i]) * lambda > cap) lambda = cap / std::fabs(dz[i]);
   }
   if (control) {
@@ -260,8 +267,8 @@ double StepLimit(const Iterate& at, const std::vector<double>& dz,
 // singular or the line search stalls; false only when a run failed (result
 // filled) or the budget was spent.
 bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowState>& unknowns,
-            const ControlUnknown* control, const SteadyStateOptions& options,
-            SteadyStateResult* r, Iterate* best) {
+            const ControlUnknown* control, const SteadyStateOptions& options, SteadyStateResult* r,
+            Iterate* best) {
   Iterate at;
   at.z = std::move(start);
   if (!shooter.Run(&at.z, 1, &at.run)) return false;
@@ -308,11 +315,11 @@ struct PeriodSettle {
   double residual = HUGE_VAL;
   std::vector<double> ripple;
   double regulated_mean = NAN;
+  bool control_pinned = false;  ///< the control correction stopped at a bound
 };
 
-PeriodSettle SettleByPeriods(Shooter& shooter, std::vector<double>* z,
-                             std::vector<double> ripple, const SteadyStateOptions& options,
-                             const SteadyStateResult& r) {
+PeriodSettle SettleByPeriods(Shooter& shooter, std::vector<double>* z, std::vector<double> ripple,
+                             const SteadyStateOptions& options, const SteadyStateResult& r) {
   const size_t n = shooter.states();
   PeriodSettle out;
   out.ripple = std::move(ripple);
@@ -370,16 +377,23 @@ PeriodSettle RegulateByPeriods(Shooter& shooter, std::vector<double>* z, std::ve
     double reg = shooter.RegulationResidual(out.regulated_mean);
     out.residual = std::max(out.residual, reg);
     if (reg <= options.tolerance) return out;
-    double slope = std::isfinite(u_prev) && (*z)[u] != u_prev ? (e - e_prev) / ((*z)[u] - u_prev)
-                                                              : NAN;
+    double slope =
+        std::isfinite(u_prev) && (*z)[u] != u_prev ? (e - e_prev) / ((*z)[u] - u_prev) : NAN;
     u_prev = (*z)[u];
     e_prev = e;
-    double next = std::isfinite(slope) && slope != 0
-                      ? u_prev - e / slope
-                      : u_prev + (u_prev + 0.005 * (control.max - control.min) > control.max
-                                      ? -0.005
-                                      : 0.005) * (control.max - control.min);
+    double next =
+        std::isfinite(slope) && slope != 0
+            ? u_prev - e / slope
+            : u_prev +
+                  (u_prev + 0.005 * (control.max - control.min) > control.max ? -0.005 : 0.005) *
+                      (control.max - control.min);
     (*z)[u] = std::min(control.max, std::max(control.min, next));
+    if ((*z)[u] == u_prev) {
+      // Pinned: the secant step asks for a control beyond the bound it is
+      // already at, so more rounds would simulate the same circuit again.
+      out.control_pinned = true;
+      break;
+    }
   }
   out.settled = false;
   return out;
@@ -395,8 +409,8 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
   SteadyStateResult r;
   r.ok = true;
   std::vector<SlowState> unknowns = SearchUnknowns(states, control);
-  Shooter shooter(simulator, render, vectors, unknowns, states.size(), control, period_s,
-                  options, &r);
+  Shooter shooter(simulator, render, vectors, unknowns, states.size(), control, period_s, options,
+                  &r);
   std::vector<double> z(unknowns.size());
   for (size_t i = 0; i < z.size(); ++i) z[i] = unknowns[i].initial;
   r.state.assign(z.begin(), z.begin() + states.size());
@@ -434,6 +448,7 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
   PeriodSettle p = control ? RegulateByPeriods(shooter, &z, best.run.ripple, *control, options, r)
                            : SettleByPeriods(shooter, &z, best.run.ripple, options, r);
   if (!r.ok) return r;
+  r.control_pinned = p.control_pinned;
   double residual = std::isfinite(p.residual) ? p.residual : best.residual;
   return finish(z, p.ripple, residual, p.regulated_mean, p.settled);
 }

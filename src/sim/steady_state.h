@@ -70,9 +70,9 @@ struct SteadyStateOptions {
   /// A state is settled when |x(T) - x(0)| <= max(tolerance * ripple, floor),
   /// ripple = max - min of that state over the period.
   double tolerance = 1e-3;
-  int max_newton = 8;          ///< Newton iterations before falling back
-  int max_periods = 1000;      ///< periods simulated in all, every run counted
-  int chunk_periods = 20;      ///< run length of the period-by-period method
+  int max_newton = 8;      ///< Newton iterations before falling back
+  int max_periods = 1000;  ///< periods simulated in all, every run counted
+  int chunk_periods = 20;  ///< run length of the period-by-period method
   /// Period by period: settled when the states at the last `window` period
   /// boundaries all lie within the tolerance of the latest one (a slow ring
   /// of the output filter passes a short cycle-to-cycle test while far off)
@@ -94,10 +94,10 @@ struct SteadyStateResult {
   bool ok = false;
   bool settled = false;
   std::string error;
-  std::string log;        ///< log of the failing run, if any
-  std::string method;     ///< "shooting" or "periods" (the method that finished)
-  int iterations = 0;     ///< Newton iterations taken
-  int periods = 0;        ///< periods simulated in all
+  std::string log;     ///< log of the failing run, if any
+  std::string method;  ///< "shooting" or "periods" (the method that finished)
+  int iterations = 0;  ///< Newton iterations taken
+  int periods = 0;     ///< periods simulated in all
   /// Shooting: max over states of |x(T) - x(0)| / max(ripple, floor /
   /// tolerance). Period by period: the larger of the window's spread and the
   /// extrapolated remaining change, in the same units. The point is settled
@@ -109,6 +109,9 @@ struct SteadyStateResult {
   /// average over the last simulated period (NaN without one).
   double control = NAN;
   double regulated_mean = NAN;
+  /// With a control unknown, not settled: the correction stopped at a bound of
+  /// the control's range (the set point lies outside what the range reaches).
+  bool control_pinned = false;
   /// When a Newton trial run settled: that run, `trial_periods` periods from
   /// `state` (and `control`); its periods are counted in `periods`. Not ok
   /// (empty) when the search settled otherwise (initial state, period by period).
