@@ -28,8 +28,9 @@ class RegulationAnnotationsTest : public ::testing::Test {
 };
 
 TEST_F(RegulationAnnotationsTest, ReadsControlRegulationAndPowerPorts) {
-  ASSERT_TRUE(Parse("*@ control D min=0.02 max=950m\n*@ regulate V(out) target=Vout\n"
-                    "*@ power input=-v(in)*i(v1) output=v(out)*i(l1)\n"))
+  ASSERT_TRUE(
+      Parse("*@ control D min=0.02 max=950m\n*@ regulate V(out) target=Vout\n"
+            "*@ power input=-v(in)*i(v1) output=v(out)*i(l1)\n"))
       << error_.Format();
   const RegulationSpec& r = tmpl_.regulation;
   EXPECT_TRUE(r.declared());
@@ -64,10 +65,16 @@ TEST_F(RegulationAnnotationsTest, MalformedAnnotationsAreRefusedAtTheirLine) {
   const BadCase cases[] = {
       {"*@ control D min=0.9 max=0.1\n*@ regulate v(out) target=Vout\n", 7, "min < max"},
       {"*@ control D min=0.1\n*@ regulate v(out) target=Vout\n", 7, "needs max="},
+      // A unit letter on a bound: ngspice would read 0.95V as 0.95, but the
+      // spelling says something else, so it is refused (common practice: the
+      // same rule as every number of the sweep file, core/spice_number.h).
+      {"*@ control D min=0.1 max=0.95V\n*@ regulate v(out) target=Vout\n", 7, "max=0.95V"},
+      {"*@ control D min=1MHz max=2\n*@ regulate v(out) target=Vout\n", 7, "min=1MHz"},
+      {"*@ control D min=0.1 max=0.9 default=closed\n*@ regulate v(out) target=Vout\n", 7,
+       "default=regulated or default=open"},
       {"*@ control D min=0.1 max=0.9 gain=2\n*@ regulate v(out) target=Vout\n", 7,
        "unknown key 'gain'"},
-      {"*@ control Dx min=0.1 max=0.9\n*@ regulate v(out) target=Vout\n", 7,
-       "did you mean 'd'"},
+      {"*@ control Dx min=0.1 max=0.9\n*@ regulate v(out) target=Vout\n", 7, "did you mean 'd'"},
       {"*@ control D min=0.1 max=0.9\n*@ regulate v(out) target=Vo\n", 8, "did you mean"},
       {"*@ control D min=0.1 max=0.9\n*@ regulate i(l1) target=Vout\n", 8, "v(<node>)"},
       {"*@ control D min=0.1 max=0.9\n", 7, "needs a '*@ regulate"},
