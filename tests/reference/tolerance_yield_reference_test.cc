@@ -159,5 +159,160 @@ TEST(ToleranceYieldReference, WorstCornerIsTheClosedFormsWorst) {
               predicted.c_str(), least, t.worst_energy_corner.c_str(), t.worst_energy_margin);
 }
 
+// ---- Tolerance on a switch model parameter: the output capacitance ----
+//
+// The generic linear switch zsw_linear (netlists/switches.lib) as a <device>
+// on both switches, its coss_f varied normally (sigma 10 % of nominal); one
+// draw per sample is taken by both switches, so Ceq = 2·coss_f. A sample
+// passes when its edge is full ZVS at the set dead time (pass="class"), which
+// zvsmap measures from the waveform: the energy margin would not do, as it
+// takes the capacitance from the template's `coss=` annotation, not from a
+// <device> (README "Switch models").
+//
+// The closed form: the resonant transition of netlists/references.md sec. 2
+// (Vorperian, "Quasi-square-wave converters", IEEE Trans. Power Electron.
+// 3(2), 1988), with the current into the node I0 at the start of the
+// transition and the output voltage Vo taken from the nominal point's own
+// simulation (i_commutated_a, v(out)) so that the check is about the
+// transition and not about the ripple formula:
+//   v(t) = Vo·(1 - cos wt) + I0·Z·sin wt,  i(t) = I0·cos wt + (Vo/Z)·sin wt,
+//   Z = sqrt(L/Ceq), w = 1/sqrt(L·Ceq);
+// when v reaches the rail at t1 the incoming switch's body diode clamps it
+// and i falls at (Vin - Vo)/L to zero at t2 = t1 + L·i(t1)/(Vin - Vo) (sec.
+// 2, dead-time window); after t2 the node rings back, v = Vo + (Vin - Vo)·cos
+// w(t - t2). The edge is full when Vin - v(td) <= the residual limit.
+// [derived from sec. 2]
+
+struct Transition {
+  double vin, vo, l, i0, td, limit;
+};
+
+double NodeAtTurnOn(const Transition& x, double coss) {
+  double ceq = 2 * coss, z = std::sqrt(x.l / ceq), w = 1 / std::sqrt(x.l * ceq);
+  auto v = [&](double t) { return x.vo * (1 - std::cos(w * t)) + x.i0 * z * std::sin(w * t); };
+  auto i = [&](double t) { return x.i0 * std::cos(w * t) + (x.vo / z) * std::sin(w * t); };
+  double peak = x.vo + std::hypot(x.vo, x.i0 * z);
+  if (peak < x.vin) return v(x.td);
+  double lo = 0, hi = (3.14159265358979323846 - std::atan2(x.i0 * z, x.vo)) / w;  // the peak
+  for (int k = 0; k < 200; ++k) {
+    double mid = (lo + hi) / 2;
+    (v(mid) < x.vin ? lo : hi) = mid;
+  }
+  double t1 = hi;
+  if (x.td <= t1) return v(x.td);
+  double t2 = t1 + x.l * i(t1) / (x.vin - x.vo);
+  if (x.td <= t2) return x.vin;
+  return x.vo + (x.vin - x.vo) * std::cos(w * (x.td - t2));
+}
+
+bool ClosedFormFull(const Transition& x, double coss) {
+  return x.vin - NodeAtTurnOn(x, coss) <= x.limit;
+}
+
+// The yield over coss ~ N(c_nom, sigma): the normal density integrated over
+// the capacitances the closed form passes (midpoint rule, ±6 sigma, 6000 steps).
+double ClosedFormYield(const Transition& x, double c_nom, double sigma) {
+  const int n = 6000;
+  double lo = c_nom - 6 * sigma, h = 12 * sigma / n, sum = 0;
+  for (int k = 0; k < n; ++k) {
+    double c = lo + (k + 0.5) * h;
+    if (c > 0 && ClosedFormFull(x, c)) sum += std::exp(-0.5 * std::pow((c - c_nom) / sigma, 2));
+  }
+  return sum * h / (sigma * std::sqrt(2 * 3.14159265358979323846));
+}
+
+// The first capacitance above `from` at which the closed form goes from
+// passing to failing (scanned in 1 % steps, then bisected); NaN if none below 50·from.
+double ClosedFormThreshold(const Transition& x, double from) {
+  double lo = from;
+  while (!(ClosedFormFull(x, lo) && !ClosedFormFull(x, lo * 1.01))) {
+    lo *= 1.01;
+    if (lo > 50 * from) return std::nan("");
+  }
+  double hi = lo * 1.01;
+  for (int k = 0; k < 100; ++k) {
+    double mid = (lo + hi) / 2;
+    (ClosedFormFull(x, mid) ? lo : hi) = mid;
+  }
+  return lo;
+}
+
+// 48 V -> 12 V at 500 kHz as above, L = 1.75 uH, Io = 4 A and a dead time of
+// 100 ns before the high-side turn-on: the resonant transition then lasts
+// about as long as the dead time, so the capacitance decides the class.
+constexpr double kDeviceL = 1.75e-6, kDeviceIo = 4, kDeviceTd = 100e-9;
+
+Ran RunDevice(double coss, const std::string& block) {
+  char c[32];
+  std::snprintf(c, sizeof c, "%.6g", coss);
+  std::string device = std::string("  <device name=\"lin\" model=\"zsw_linear\" params=\"coss_f=") +
+                       c + "\"/>\n  <axis device=\"leg.high leg.low\" values=\"lin\"/>\n" +
+                       "  <set param=\"td_lh\" value=\"100n\"/>\n";
+  return RunNominal(kDeviceIo, kDeviceL, device + block);
+}
+
+// The transition of the nominal point of `ran` (its first result).
+Transition MeasuredTransition(const Ran& ran) {
+  const PointResult& r = ran.results.at(0);
+  const EdgeMeasurement* e = nullptr;
+  for (const EdgeMeasurement& m : r.edges) {
+    if (m.cell == "leg" && m.edge == "high_on") e = &m;
+  }
+  if (!e) throw Error("no leg.high_on at the nominal point");
+  // i_commutated_a is the current out of the node (vsense, > 0 toward the
+  // inductor): into the node it is -i.
+  double vo = r.operating.regulated_avg;  // the average of v(out), the regulated vector
+  return {e->Get("rail_v"), std::isfinite(vo) ? vo : kVo, kDeviceL, -e->Get("i_commutated_a"),
+          kDeviceTd, e->Get("v_residual_limit_v")};
+}
+
+// `ratio` = threshold / nominal capacitance: 1.05 puts the nominal half a
+// sigma below the threshold (yield about Phi(0.5)), 0.95 half a sigma above.
+// First a nominal run at a guess finds the transition's I0 and Vo, and with
+// them the closed form's threshold; then the nominal is placed at threshold /
+// ratio and its 20 samples run. At 99 % the Wilson interval (E. B. Wilson,
+// JASA 22, 1927) of 20 samples is about ±0.2 wide near 1/2.
+void CheckDeviceYield(double ratio) {
+  Ran probe = RunDevice(1.1e-9, "");
+  ASSERT_EQ(probe.results.at(0).status, PointStatus::kOk) << probe.results[0].reason;
+  Transition x = MeasuredTransition(probe);
+  ASSERT_GT(x.i0, 0) << "the current must help the high-side transition";
+  double threshold = ClosedFormThreshold(x, 0.2e-9);
+  ASSERT_TRUE(std::isfinite(threshold));
+  double c_nom = threshold / ratio;
+  Ran ran = RunDevice(c_nom,
+                      "  <tolerances seed=\"2028\" samples=\"20\" corners=\"none\" pass=\"class\" "
+                      "confidence=\"99%\">\n"
+                      "    <vary device=\"lin\" param=\"coss_f\" within=\"40%\" spread=\"normal\" "
+                      "sigma=\"10%\"/>\n"
+                      "  </tolerances>\n");
+  ASSERT_EQ(ran.sweep.points.size(), 21u);
+  for (const PointResult& r : ran.results) {
+    ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
+  }
+  // The samples' capacitances are drawn around the nominal as specified.
+  const Point& sample = ran.sweep.points[1];
+  ASSERT_EQ(sample.device_params.size(), 1u);
+  EXPECT_NEAR(sample.device_params[0].value, c_nom, 0.4 * c_nom);
+  Transition at_nominal = MeasuredTransition(ran);
+  double analytic = ClosedFormYield(at_nominal, c_nom, 0.1 * c_nom);
+  ASSERT_GT(analytic, 0.05);
+  ASSERT_LT(analytic, 0.95);
+  ToleranceSummary s = SummarizeTolerances(ran.sweep.spec.tolerances, ran.sweep.points, ran.results,
+                                           ChooseMargin(ran.results));
+  const EdgeTolerance& t = HighOn(s);
+  EXPECT_EQ(t.samples, 20);
+  EXPECT_LE(t.interval.low, analytic) << "yield " << t.yield << " of " << t.samples;
+  EXPECT_GE(t.interval.high, analytic) << "yield " << t.yield << " of " << t.samples;
+  std::printf(
+      "coss_f: I0 %.3f A, Vo %.3f V, threshold %.4g nF, nominal %.4g nF: analytic yield %.3f, "
+      "simulated %d/%d = %.3f, 99%% interval [%.3f, %.3f]\n",
+      at_nominal.i0, at_nominal.vo, threshold * 1e9, c_nom * 1e9, analytic, t.passes, t.samples,
+      t.yield, t.interval.low, t.interval.high);
+}
+
+TEST(ToleranceYieldReference, SwitchCapacitanceBelowTheThreshold) { CheckDeviceYield(1.05); }
+TEST(ToleranceYieldReference, SwitchCapacitanceAboveTheThreshold) { CheckDeviceYield(0.95); }
+
 }  // namespace
 }  // namespace zvsmap
