@@ -23,9 +23,9 @@ struct SubcktInfo {
   std::vector<std::string> params;  ///< lower-case names declared after `params:`
   /// The default of each of `params`, as written after its '=' (same order).
   std::vector<std::string> param_defaults;
-  bool has_vch = false;             ///< has an element named vch (zvsmap's channel-current probe)
-  SourceLocation where;             ///< the .subckt line
-  std::string text;                 ///< the block from .subckt to .ends, physical lines
+  bool has_vch = false;  ///< has an element named vch (zvsmap's channel-current probe)
+  SourceLocation where;  ///< the .subckt line
+  std::string text;      ///< the block from .subckt to .ends, physical lines
 };
 
 /// The generic switch library shipped in netlists/: DataFile("netlists/switches.lib")

@@ -299,12 +299,11 @@ std::string HtmlEdgeSections(const ReportBasis& input, const std::vector<Plot>& 
     h += EdgeFigures(plots, "map_" + FileSafe(key.cell) + "_" + FileSafe(key.edge), placed);
     std::string tolerance;
     for (const char* stem : {"yield_", "worst_energy_", "worst_timing_"}) {
-      tolerance +=
-          EdgeFigures(plots, stem + FileSafe(key.cell) + "_" + FileSafe(key.edge), placed);
+      tolerance += EdgeFigures(plots, stem + FileSafe(key.cell) + "_" + FileSafe(key.edge), placed);
     }
     if (!tolerance.empty()) {
-      h += "<h3>Tolerances (yield and worst case; hover a cell for its interval)</h3>\n" +
-           tolerance;
+      h +=
+          "<h3>Tolerances (yield and worst case; hover a cell for its interval)</h3>\n" + tolerance;
     }
     h += "<h3>Worst points (lowest margin: " + HtmlEscape(AxisLabel(margin.description, unit)) +
          ")</h3>\n" + WorstPoints(input, grid, key, margin, unit);

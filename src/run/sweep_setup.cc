@@ -27,10 +27,11 @@ bool DeviceParamNominals(const PreparedSweep& sweep, std::vector<double>* out,
   for (const VarySpec& v : sweep.spec.tolerances.vary) {
     out->push_back(NAN);
     if (!v.OnDevice()) continue;
-    auto device = std::find_if(sweep.devices.begin(), sweep.devices.end(),
-                               [&](const ResolvedDevice& d) { return SameName(d.spec.name, v.device); });
+    auto named = [&](const ResolvedDevice& d) { return SameName(d.spec.name, v.device); };
+    auto device = std::find_if(sweep.devices.begin(), sweep.devices.end(), named);
     std::string why = "is not declared";
-    if (device == sweep.devices.end() || !DeviceParamNominal(*device, v.param, &out->back(), &why)) {
+    if (device == sweep.devices.end() ||
+        !DeviceParamNominal(*device, v.param, &out->back(), &why)) {
       *error = Diagnostic(v.where, "device '" + v.device + "': " + why);
       return false;
     }

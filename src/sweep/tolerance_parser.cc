@@ -306,11 +306,10 @@ bool CheckVariedDevice(const SweepSpec& spec, const VarySpec& v, Diagnostic* err
                               [&](const std::string& n) { return SameName(n, v.device); });
   if (!declared) {
     std::string best = ClosestName(v.device, names);
-    *error = Diagnostic(
-        v.where, "unknown device '" + v.device + "' in <vary device=...> (" +
-                     (names.empty() ? std::string("the sweep declares no <device>")
-                                    : "declared: " + Listed(names)) +
-                     (best.empty() ? "" : "; did you mean '" + best + "'?") + ")");
+    *error = Diagnostic(v.where, "unknown device '" + v.device + "' in <vary device=...> (" +
+                                     (names.empty() ? std::string("the sweep declares no <device>")
+                                                    : "declared: " + Listed(names)) +
+                                     (best.empty() ? "" : "; did you mean '" + best + "'?") + ")");
     return false;
   }
   for (const AxisGroup& g : spec.groups) {
@@ -322,7 +321,8 @@ bool CheckVariedDevice(const SweepSpec& spec, const VarySpec& v, Diagnostic* err
   }
   *error = Diagnostic(v.where, "device '" + v.device +
                                    "' is in no <axis device=...>, so no point uses it and "
-                                   "varying its '" + v.param + "' would change nothing");
+                                   "varying its '" +
+                                   v.param + "' would change nothing");
   return false;
 }
 

@@ -261,7 +261,7 @@ Transition MeasuredTransition(const Ran& ran) {
   // columns): into the node it is -i.
   double vo = r.operating.regulated_avg;  // the average of v(out), the regulated vector
   return {e->Get("rail_v"), std::isfinite(vo) ? vo : kVo, kDeviceL, -e->Get("i_commutated_a"),
-          kDeviceTd, e->Get("v_residual_limit_v")};
+          kDeviceTd,        e->Get("v_residual_limit_v")};
 }
 
 // The upper threshold capacitance as a fixed point (three simulations).
@@ -285,13 +285,13 @@ double UpperThreshold() {
 void CheckDeviceYield(double ratio, const std::string& seed) {
   double upper = UpperThreshold();
   double c_nom = upper / ratio, sigma = 0.1 * c_nom;
-  Ran ran = RunDevice(c_nom,
-                      "  <tolerances seed=\"" + seed +
-                          "\" samples=\"20\" corners=\"none\" pass=\"class\" "
-                      "confidence=\"99%\">\n"
-                      "    <vary device=\"lin\" param=\"coss_f\" within=\"40%\" spread=\"normal\" "
-                      "sigma=\"10%\"/>\n"
-                      "  </tolerances>\n");
+  Ran ran = RunDevice(
+      c_nom, "  <tolerances seed=\"" + seed +
+                 "\" samples=\"20\" corners=\"none\" pass=\"class\" "
+                 "confidence=\"99%\">\n"
+                 "    <vary device=\"lin\" param=\"coss_f\" within=\"40%\" spread=\"normal\" "
+                 "sigma=\"10%\"/>\n"
+                 "  </tolerances>\n");
   ASSERT_EQ(ran.sweep.points.size(), 21u);
   for (const PointResult& r : ran.results) {
     ASSERT_EQ(r.status, PointStatus::kOk) << r.reason << "\n" << r.log;
@@ -328,8 +328,12 @@ void CheckDeviceYield(double ratio, const std::string& seed) {
       t.samples, t.yield, t.interval.low, t.interval.high);
 }
 
-TEST(ToleranceYieldReference, SwitchCapacitanceBelowTheThreshold) { CheckDeviceYield(1.05, "2028"); }
-TEST(ToleranceYieldReference, SwitchCapacitanceAboveTheThreshold) { CheckDeviceYield(0.95, "2029"); }
+TEST(ToleranceYieldReference, SwitchCapacitanceBelowTheThreshold) {
+  CheckDeviceYield(1.05, "2028");
+}
+TEST(ToleranceYieldReference, SwitchCapacitanceAboveTheThreshold) {
+  CheckDeviceYield(0.95, "2029");
+}
 
 }  // namespace
 }  // namespace zvsmap

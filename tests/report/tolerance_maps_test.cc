@@ -96,7 +96,8 @@ class ToleranceMapsTest : public ::testing::Test {
       AddVariant(k, VariantTag::Kind::kCorner, 0, low);
       AddVariant(k, VariantTag::Kind::kCorner, 1, high);
       for (unsigned m = 0; m < 10; ++m) {
-        AddVariant(k, VariantTag::Kind::kSample, m, static_cast<int>(m) < kPasses[k] ? 0.05 : -0.05);
+        AddVariant(k, VariantTag::Kind::kSample, m,
+                   static_cast<int>(m) < kPasses[k] ? 0.05 : -0.05);
       }
     }
   }
@@ -121,8 +122,8 @@ TEST_F(ToleranceMapsTest, YieldMapDrawsTheYieldsAndIntervalsOfToleranceCsv) {
   std::string dir = TempDir("tolerance_maps");
   ReportOutcome outcome;
   std::string error;
-  ASSERT_TRUE(WriteReports(ReportInput{s_.spec, s_.tmpl, s_.points, s_.results}, dir, &outcome,
-                           &error))
+  ASSERT_TRUE(
+      WriteReports(ReportInput{s_.spec, s_.tmpl, s_.points, s_.results}, dir, &outcome, &error))
       << error;
   std::vector<std::map<std::string, std::string>> rows = ReadCsv(dir + "/tolerance.csv");
   pugi::xml_document svg;
@@ -172,8 +173,8 @@ TEST_F(ToleranceMapsTest, WorstCaseMapsDrawTheWorstCornerOfToleranceCsv) {
   std::string dir = TempDir("tolerance_worst");
   ReportOutcome outcome;
   std::string error;
-  ASSERT_TRUE(WriteReports(ReportInput{s_.spec, s_.tmpl, s_.points, s_.results}, dir, &outcome,
-                           &error))
+  ASSERT_TRUE(
+      WriteReports(ReportInput{s_.spec, s_.tmpl, s_.points, s_.results}, dir, &outcome, &error))
       << error;
   std::vector<std::map<std::string, std::string>> rows = ReadCsv(dir + "/tolerance.csv");
   pugi::xml_document energy, timing;
@@ -224,8 +225,8 @@ TEST_F(ToleranceMapsTest, OneSweptAxisGivesOneRowAndNoBlockGivesNoMap) {
   std::vector<Point> nominal(one.points.begin(), one.points.begin() + 3);
   std::vector<PointResult> nominal_results(one.results.begin(), one.results.begin() + 3);
   ReportBasis basis(ReportInput{one.spec, one.tmpl, nominal, nominal_results});
-  basis.tolerance = SummarizeTolerances(one.spec.tolerances, one.points, one.results,
-                                        ChooseMargin(one.results));
+  basis.tolerance =
+      SummarizeTolerances(one.spec.tolerances, one.points, one.results, ChooseMargin(one.results));
   std::vector<Plot> plots = MakeToleranceMaps(basis);
   ASSERT_EQ(plots.size(), 1u);  // samples only: the yield map of leg.high_on
   EXPECT_EQ(plots[0].file, "yield_leg_high_on.svg");

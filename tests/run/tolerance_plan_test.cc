@@ -5,11 +5,11 @@
 #include <gtest/gtest.h>
 
 #include "check_fixture.h"
+#include "core/spice_number.h"
+#include "core/text.h"
 #include "run/point_evaluator.h"
 #include "run/run_plan.h"
 #include "run/sweep_setup.h"
-#include "core/spice_number.h"
-#include "core/text.h"
 
 namespace zvsmap {
 namespace {
@@ -171,9 +171,10 @@ TEST_F(TolerancePlanTest, BadDeviceParameterIsRefusedWithItsLine) {
   EXPECT_EQ(m,
             "7: device 'lin': the nominal value of 'coss_f' (its params=\"...\") is '{2n}', not a "
             "plain number; set a number with <device params=\"coss_f=...\">");
-  EXPECT_EQ(refused(" params=\"coss_f=0\"", "<vary device=\"lin\" param=\"coss_f\" within=\"10%\"/>"),
-            "7: device 'lin': 'coss_f' is 0, so a relative 'within' moves it nowhere; give an "
-            "amount (within=\"50n\") instead of a percentage");
+  EXPECT_EQ(
+      refused(" params=\"coss_f=0\"", "<vary device=\"lin\" param=\"coss_f\" within=\"10%\"/>"),
+      "7: device 'lin': 'coss_f' is 0, so a relative 'within' moves it nowhere; give an "
+      "amount (within=\"50n\") instead of a percentage");
 }
 
 TEST_F(TolerancePlanTest, UnknownVariedParameterIsRefusedWithItsLine) {
