@@ -2,9 +2,11 @@
 
 #include <algorithm>
 #include <cctype>
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <map>
+#include <optional>
 #include <set>
 #include <sstream>
 
@@ -160,6 +162,7 @@ void ScanLogical(const std::string& path, const std::vector<std::pair<int, std::
         } else if (t[i].find('=') != std::string::npos) {
           in_params = true;
           open->params.push_back(ParamName(t[i]));
+          open->param_defaults.push_back(t[i].substr(t[i].find('=') + 1));
         } else if (!in_params) {
           open->pins.push_back(Lower(t[i]));
         }
@@ -578,6 +581,61 @@ bool ApplyDevicesToDeck(const Template& tmpl, const std::vector<ResolvedDevice>&
   }
   *deck = std::move(out);
   return true;
+}
+
+bool DeviceParamNominal(const ResolvedDevice& device, const std::string& param, double* value,
+                        std::string* why) {
+  const SubcktInfo& sub = device.subckt;
+  auto declared = std::find(sub.params.begin(), sub.params.end(), param);
+  if (declared == sub.params.end()) {
+    std::string best = ClosestName(param, sub.params);
+    *why = "subcircuit '" + sub.name + "' (" + Where(sub.where) + ") declares no parameter '" +
+           param + "' (" +
+           (sub.params.empty() ? std::string("it declares none")
+                               : "it declares: " + Join(sub.params, ", ")) +
+           (best.empty() ? "" : "; did you mean '" + best + "'?") + ")";
+    return false;
+  }
+  if (param == "vds0_v") {
+    *why = "vds0_v is the circuit's initial drain-source voltage, not a model parameter";
+    return false;
+  }
+  std::string text;
+  std::string from = "the default of subcircuit '" + sub.name + "' (" + Where(sub.where) + ")";
+  size_t k = static_cast<size_t>(declared - sub.params.begin());
+  if (k < sub.param_defaults.size()) text = sub.param_defaults[k];
+  for (const std::string& p : Tokens(device.spec.params)) {
+    if (ParamName(p) != param) continue;
+    text = p.substr(p.find('=') + 1);
+    from = "its params=\"...\"";
+  }
+  std::optional<double> v = ParseSpiceNumber(text);
+  if (!v || !std::isfinite(*v)) {
+    *why = "the nominal value of '" + param + "' (" + from + ") is '" + Printable(text) +
+           "', not a plain number; set a number with <device params=\"" + param + "=...\">";
+    return false;
+  }
+  *value = *v;
+  return true;
+}
+
+std::vector<ResolvedDevice> WithDeviceParams(const std::vector<ResolvedDevice>& devices,
+                                             const std::vector<DeviceParamValue>& values) {
+  std::vector<ResolvedDevice> out = devices;
+  for (ResolvedDevice& d : out) {
+    std::vector<std::string> tokens = Tokens(d.spec.params);
+    bool changed = false;
+    for (const DeviceParamValue& v : values) {
+      if (Lower(v.device) != Lower(d.spec.name)) continue;
+      std::string token = v.param + "=" + FormatNumber(v.value);
+      auto same = [&](const std::string& t) { return ParamName(t) == v.param; };
+      tokens.erase(std::remove_if(tokens.begin(), tokens.end(), same), tokens.end());
+      tokens.push_back(token);
+      changed = true;
+    }
+    if (changed) d.spec.params = Join(tokens, " ");
+  }
+  return out;
 }
 
 bool ApplyDevices(const Template& tmpl, const std::vector<ResolvedDevice>& devices,

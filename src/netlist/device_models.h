@@ -11,6 +11,7 @@
 #include "netlist/deck.h"
 #include "netlist/template.h"
 #include "sweep/device_spec.h"
+#include "sweep/point.h"
 #include "sweep/sweep_spec.h"
 
 namespace zvsmap {
@@ -20,9 +21,11 @@ struct SubcktInfo {
   std::string name;                 ///< as written
   std::vector<std::string> pins;    ///< lower-case, in order
   std::vector<std::string> params;  ///< lower-case names declared after `params:`
-  bool has_vch = false;             ///< has an element named vch (zvsmap's channel-current probe)
-  SourceLocation where;             ///< the .subckt line
-  std::string text;                 ///< the block from .subckt to .ends, physical lines
+  /// The default of each of `params`, as written after its '=' (same order).
+  std::vector<std::string> param_defaults;
+  bool has_vch = false;  ///< has an element named vch (zvsmap's channel-current probe)
+  SourceLocation where;  ///< the .subckt line
+  std::string text;      ///< the block from .subckt to .ends, physical lines
 };
 
 /// The generic switch library shipped in netlists/: DataFile("netlists/switches.lib")
@@ -89,6 +92,21 @@ DeviceLines InstantiateDevice(const ResolvedDevice& device, const std::string& i
 bool ApplyDevicesToDeck(const Template& tmpl, const std::vector<ResolvedDevice>& devices,
                         const std::vector<std::pair<std::string, std::string>>& choice, Deck* deck,
                         std::string* error);
+
+/// The nominal value of parameter `param` (lower-case) of `device`'s
+/// subcircuit, for a tolerance on it (<vary device=...>): the device's own
+/// `params` setting, else the subcircuit's default. False with `why` when the
+/// subcircuit declares no such parameter, for vds0_v (the circuit's initial
+/// drain voltage, not a model parameter), or when the value is not a plain
+/// finite number (an expression: then set a number in <device params>).
+bool DeviceParamNominal(const ResolvedDevice& device, const std::string& param, double* value,
+                        std::string* why);
+
+/// Copies of `devices` with `values` set in their params, each rendered as
+/// name=FormatNumber(value) in place of the device's own setting of it (or
+/// appended). Names and numbers only: no text from the sweep file is pasted.
+std::vector<ResolvedDevice> WithDeviceParams(const std::vector<ResolvedDevice>& devices,
+                                             const std::vector<DeviceParamValue>& values);
 
 /// ApplyDevicesToDeck on netlist text (lines without origins).
 bool ApplyDevices(const Template& tmpl, const std::vector<ResolvedDevice>& devices,

@@ -297,6 +297,14 @@ std::string HtmlEdgeSections(const ReportBasis& input, const std::vector<Plot>& 
          "\">\n<h2>" + HtmlEscape(key.Label()) + "</h2>\n";
     h += "<h3>ZVS boundaries</h3>\n" + BoundaryTable(input, grid, key, margin);
     h += EdgeFigures(plots, "map_" + FileSafe(key.cell) + "_" + FileSafe(key.edge), placed);
+    std::string tolerance;
+    for (const char* stem : {"yield_", "worst_energy_", "worst_timing_"}) {
+      tolerance += EdgeFigures(plots, stem + FileSafe(key.cell) + "_" + FileSafe(key.edge), placed);
+    }
+    if (!tolerance.empty()) {
+      h +=
+          "<h3>Tolerances (yield and worst case; hover a cell for its interval)</h3>\n" + tolerance;
+    }
     h += "<h3>Worst points (lowest margin: " + HtmlEscape(AxisLabel(margin.description, unit)) +
          ")</h3>\n" + WorstPoints(input, grid, key, margin, unit);
     h += "<h3>Dead-time window</h3>\n" + WindowTable(input, key);

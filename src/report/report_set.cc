@@ -14,6 +14,7 @@
 #include "report/plots.h"
 #include "report/requirements.h"
 #include "report/summary_xml.h"
+#include "report/tolerance_maps.h"
 
 namespace zvsmap {
 
@@ -98,6 +99,7 @@ bool WriteReports(const ReportInput& raw_input, const std::string& dir, ReportOu
 
   std::vector<Plot> plots = MakePlots(input);
   for (Plot& p : DeadTimeCharts(input)) plots.push_back(std::move(p));
+  for (Plot& p : MakeToleranceMaps(input)) plots.push_back(std::move(p));
   for (const Plot& p : plots) {
     if (!WriteText(dir, p.file, p.svg, outcome, error)) return false;
   }

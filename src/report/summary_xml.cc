@@ -322,6 +322,7 @@ void AddTolerances(pugi::xml_node root, const ReportBasis& input) {
   for (const VarySpec& v : spec.vary) {
     pugi::xml_node x = node.append_child("vary");
     x.append_attribute("param") = v.param.c_str();
+    if (v.OnDevice()) x.append_attribute("device") = v.device.c_str();
     x.append_attribute("within") = XmlNumber(v.within).c_str();
     x.append_attribute("relative") = v.relative;
     x.append_attribute("spread") = SpreadName(v.spread);

@@ -30,13 +30,16 @@ SvgCanvas::SvgCanvas(double width, double height, const std::string& title) {
 pugi::xml_node SvgCanvas::Add(const char* name) { return svg_.append_child(name); }
 
 void SvgCanvas::Rect(double x, double y, double w, double h, const std::string& fill,
-                     const std::string& tooltip) {
+                     const std::string& tooltip, const DataAttributes& data) {
   pugi::xml_node r = Add("rect");
   r.append_attribute("x") = Px(x).c_str();
   r.append_attribute("y") = Px(y).c_str();
   r.append_attribute("width") = Px(w).c_str();
   r.append_attribute("height") = Px(h).c_str();
   r.append_attribute("fill") = fill.c_str();
+  for (const auto& [name, value] : data) {
+    r.append_attribute(("data-" + name).c_str()) = value.c_str();
+  }
   if (!tooltip.empty()) r.append_child("title").text() = tooltip.c_str();
 }
 

@@ -15,9 +15,13 @@ class SvgCanvas {
   /// A `width` x `height` drawing with a white background and a <title>.
   SvgCanvas(double width, double height, const std::string& title);
 
+  /// Extra attributes of a shape, each written as data-NAME="VALUE" (values
+  /// a reader such as a test or a script can take from the file).
+  using DataAttributes = std::vector<std::pair<std::string, std::string>>;
+
   /// A filled rectangle; `tooltip` (if not empty) becomes its <title>.
   void Rect(double x, double y, double w, double h, const std::string& fill,
-            const std::string& tooltip = "");
+            const std::string& tooltip = "", const DataAttributes& data = {});
   /// A straight line.
   void Line(double x1, double y1, double x2, double y2, const std::string& stroke, double width,
             bool dashed = false);

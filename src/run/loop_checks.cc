@@ -25,7 +25,7 @@ const SourceLocation* WhereSweepSets(const SweepSpec& spec, const std::string& n
     if (SameName(d.param, name)) return &d.where;
   }
   for (const auto& v : spec.tolerances.vary) {
-    if (SameName(v.param, name)) return &v.where;
+    if (!v.OnDevice() && SameName(v.param, name)) return &v.where;
   }
   return nullptr;
 }

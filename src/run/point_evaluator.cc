@@ -33,7 +33,12 @@ bool PointEvaluator::RenderFor(const Point& point, const Variables& resolved,
     *why = devices_error_;
     return false;
   }
-  return ApplyDevicesToDeck(tmpl_, devices_, point.devices, deck, why);
+  if (point.device_params.empty()) {
+    return ApplyDevicesToDeck(tmpl_, devices_, point.devices, deck, why);
+  }
+  // A tolerance variant of a device parameter: that device with its value.
+  return ApplyDevicesToDeck(tmpl_, WithDeviceParams(devices_, point.device_params), point.devices,
+                            deck, why);
 }
 
 TranSettings PointEvaluator::TranFor(const Variables& resolved, double period_s) const {

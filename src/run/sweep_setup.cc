@@ -1,5 +1,8 @@
 #include "run/sweep_setup.h"
 
+#include <algorithm>
+#include <cmath>
+
 #include "core/text.h"
 #include "handcalc/hand_calculation.h"
 #include "netlist/deck_names.h"
@@ -16,18 +19,51 @@ namespace zvsmap {
 
 namespace {
 
+// The nominal value of each <vary device=...> (NaN for a template
+// parameter): its device's setting or its subcircuit's default, checked
+// (declared, a plain number) before anything runs.
+bool DeviceParamNominals(const PreparedSweep& sweep, std::vector<double>* out,
+                         Diagnostic* error) {
+  for (const VarySpec& v : sweep.spec.tolerances.vary) {
+    out->push_back(NAN);
+    if (!v.OnDevice()) continue;
+    auto named = [&](const ResolvedDevice& d) { return SameName(d.spec.name, v.device); };
+    auto device = std::find_if(sweep.devices.begin(), sweep.devices.end(), named);
+    std::string why = "is not declared";
+    if (device == sweep.devices.end() ||
+        !DeviceParamNominal(*device, v.param, &out->back(), &why)) {
+      *error = Diagnostic(v.where, "device '" + v.device + "': " + why);
+      return false;
+    }
+    if (v.relative && out->back() == 0) {
+      *error = Diagnostic(v.where, "device '" + v.device + "': '" + v.param +
+                                       "' is 0, so a relative 'within' moves it nowhere; give "
+                                       "an amount (within=\"50n\") instead of a percentage");
+      return false;
+    }
+  }
+  return true;
+}
+
 // The tolerance variants of every nominal point (sweep/tolerance_expand.h),
 // around each varied parameter's value at that point: the point's own, else
 // the template's (resolved like the deck will be).
 bool AddToleranceVariants(PreparedSweep* out, Diagnostic* error) {
   const ToleranceSpec& tol = out->spec.tolerances;
   if (!tol.used) return true;
+  std::vector<double> device_nominal;
+  if (!DeviceParamNominals(*out, &device_nominal, error)) return false;
   std::vector<std::vector<double>> nominal_values;
   for (const Point& p : out->points) {
     Variables resolved;
     if (!ResolveParams(out->tmpl, p.values, &resolved, error)) return false;
     std::vector<double> row;
-    for (const VarySpec& v : tol.vary) {
+    for (size_t j = 0; j < tol.vary.size(); ++j) {
+      const VarySpec& v = tol.vary[j];
+      if (v.OnDevice()) {
+        row.push_back(device_nominal[j]);
+        continue;
+      }
       auto it = resolved.find(Lower(v.param));
       if (it == resolved.end()) {
         *error = Diagnostic(v.where, "the template gives no value for '" + v.param + "'");

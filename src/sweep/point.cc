@@ -24,6 +24,10 @@ std::string Point::Describe() const {
     if (!out.empty()) out += ' ';
     out += role + "=" + device;
   }
+  for (const DeviceParamValue& d : device_params) {
+    if (!out.empty()) out += ' ';
+    out += d.device + "." + d.param + "=" + FormatEngineering(d.value);
+  }
   return out;
 }
 

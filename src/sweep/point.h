@@ -15,6 +15,14 @@ struct ParamValue {
   double value = 0;
 };
 
+/// A parameter of a <device>'s switch subcircuit set by a tolerance variant
+/// (<vary device=...>): rendered on each instance of that device.
+struct DeviceParamValue {
+  std::string device;  ///< the <device> name, as written
+  std::string param;   ///< a parameter its subcircuit declares (lower-case)
+  double value = 0;
+};
+
 /// A tolerance variant of a nominal point (<tolerances>, sweep/tolerance_expand.h).
 struct VariantTag {
   enum class Kind { kCorner, kSample };
@@ -44,6 +52,9 @@ struct Point {
   int refine_round = -1;
   /// Set on a tolerance variant; empty on a nominal point.
   std::optional<VariantTag> variant = std::nullopt;
+  /// A variant's values of device parameters (<vary device=...>), in <vary>
+  /// order; empty otherwise.
+  std::vector<DeviceParamValue> device_params = {};
 
   /// The value of `name` (compared case-insensitively, as SPICE does), if this
   /// point sets it.

@@ -762,7 +762,9 @@ std::vector<Diagnostic> CheckParamsKnown(const SweepSpec& spec,
   // matches "Vin" in the sweep file.
   std::vector<Diagnostic> problems;
   std::vector<std::pair<std::string, SourceLocation>> named = spec.NamedParams();
-  for (const VarySpec& v : spec.tolerances.vary) named.emplace_back(v.param, v.where);
+  for (const VarySpec& v : spec.tolerances.vary) {
+    if (!v.OnDevice()) named.emplace_back(v.param, v.where);  // devices: CheckDeviceVaries
+  }
   for (const auto& [name, where] : named) {
     std::string lower = Lower(name);
     bool found = std::any_of(known.begin(), known.end(),

@@ -107,7 +107,7 @@ std::vector<double> CornerOffsets(const ToleranceSpec& spec, uint32_t mask) {
 std::string DescribeCorner(const ToleranceSpec& spec, uint32_t mask) {
   std::string out;
   for (size_t j = 0; j < spec.vary.size(); ++j) {
-    out += (j ? " " : "") + spec.vary[j].param + ((mask >> j) & 1u ? "+" : "-");
+    out += (j ? " " : "") + spec.vary[j].Label() + ((mask >> j) & 1u ? "+" : "-");
   }
   return out;
 }
@@ -129,6 +129,10 @@ Point MakeVariant(const ToleranceSpec& spec, const Point& nominal,
   for (size_t j = 0; j < spec.vary.size(); ++j) {
     const VarySpec& v = spec.vary[j];
     double value = v.At(nominal_values[j], offsets[j]);
+    if (v.OnDevice()) {
+      p.device_params.push_back({v.device, v.param, value});
+      continue;
+    }
     auto it = std::find_if(p.values.begin(), p.values.end(),
                            [&](const ParamValue& pv) { return SameName(pv.name, v.param); });
     if (it != p.values.end()) {

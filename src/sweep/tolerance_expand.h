@@ -63,7 +63,8 @@ std::string DescribeCorner(const ToleranceSpec& spec, uint32_t mask);
 /// (CornerMasks) and then its samples, at indices N + i·V + v (N nominal
 /// points, V variants each), each a copy of the nominal point with the varied
 /// parameters set to nominal_values[i][j] moved by the offsets (derived
-/// values keep their nominal values) and its VariantTag. Fails when the total
+/// values keep their nominal values) and its VariantTag; a device's
+/// parameter (<vary device=...>) goes to Point::device_params instead. Fails when the total
 /// exceeds `max_points` (error at the block).
 bool ExpandTolerances(const ToleranceSpec& spec,
                       const std::vector<std::vector<double>>& nominal_values, size_t max_points,

@@ -85,6 +85,12 @@ bool IsIdentifier(const std::string& s) {
   });
 }
 
+bool IsDeviceLabel(const std::string& s) {
+  return !s.empty() && std::all_of(s.begin(), s.end(), [](char c) {
+    return std::isalnum(static_cast<unsigned char>(c)) || c == '_' || c == '-';
+  });
+}
+
 bool BlockReader::Block(pugi::xml_node node, ToleranceSpec* out) const {
   if (!Shape(node, {"seed", "samples", "corners", "confidence", "pass"})) return false;
   out->used = true;
@@ -169,7 +175,7 @@ bool BlockReader::Block(pugi::xml_node node, ToleranceSpec* out) const {
 }
 
 bool BlockReader::Vary(pugi::xml_node node, const ToleranceSpec& block, VarySpec* out) const {
-  if (!Shape(node, {"param", "within", "spread", "sigma"})) return false;
+  if (!Shape(node, {"param", "device", "within", "spread", "sigma"})) return false;
   out->where = where_(node);
   out->param = Trim(node.attribute("param").value());
   if (!node.attribute("param")) return fail_(node, nullptr, "missing attribute 'param' on <vary>");
@@ -178,10 +184,19 @@ bool BlockReader::Vary(pugi::xml_node node, const ToleranceSpec& block, VarySpec
                  "bad parameter name '" + out->param +
                      "' (letters, digits and '_', not starting with a digit)");
   }
+  if (node.attribute("device")) {
+    out->device = Trim(node.attribute("device").value());
+    if (!IsDeviceLabel(out->device)) {
+      return fail_(node, "device",
+                   "bad device name '" + out->device +
+                       "' (the name of a <device>: letters, digits, '_' and '-')");
+    }
+    out->param = Lower(out->param);  // subcircuit parameters are matched in lower case
+  }
   for (const VarySpec& earlier : block.vary) {
-    if (SameName(earlier.param, out->param)) {
+    if (SameName(earlier.param, out->param) && SameName(earlier.device, out->device)) {
       return fail_(node, "param",
-                   "parameter '" + out->param + "' is varied twice (first on line " +
+                   "parameter '" + out->Label() + "' is varied twice (first on line " +
                        std::to_string(earlier.where.line) + ")");
     }
   }
@@ -262,7 +277,7 @@ std::string ToleranceSpec::Canonical() const {
                      : corners == Corners::kAll ? "all"
                                                 : "none");
   for (const VarySpec& v : vary) {
-    out += "\nvary " + Lower(v.param) + " within=" + FormatNumber(v.within) +
+    out += "\nvary " + Lower(v.Label()) + " within=" + FormatNumber(v.within) +
            (v.relative ? "rel" : "abs") + " spread=" + SpreadName(v.spread) +
            " sigma=" + FormatNumber(v.sigma);
   }
@@ -274,12 +289,55 @@ bool ParseTolerances(pugi::xml_node node, const ToleranceWhere& where, const Tol
   return BlockReader(where, fail, warn).Block(node, out);
 }
 
+namespace {
+
+std::string Listed(const std::vector<std::string>& names) {
+  std::string out;
+  for (const std::string& n : names) out += (out.empty() ? "" : ", ") + n;
+  return out;
+}
+
+// A <vary device=...> names a declared <device> that some device axis puts
+// in the circuit (else the tolerance would change nothing).
+bool CheckVariedDevice(const SweepSpec& spec, const VarySpec& v, Diagnostic* error) {
+  std::vector<std::string> names;
+  for (const DeviceSpec& d : spec.devices) names.push_back(d.name);
+  bool declared = std::any_of(names.begin(), names.end(),
+                              [&](const std::string& n) { return SameName(n, v.device); });
+  if (!declared) {
+    std::string best = ClosestName(v.device, names);
+    *error = Diagnostic(v.where, "unknown device '" + v.device + "' in <vary device=...> (" +
+                                     (names.empty() ? std::string("the sweep declares no <device>")
+                                                    : "declared: " + Listed(names)) +
+                                     (best.empty() ? "" : "; did you mean '" + best + "'?") + ")");
+    return false;
+  }
+  for (const AxisGroup& g : spec.groups) {
+    for (const AxisSpec& a : g.axes) {
+      for (const std::string& n : a.device_names) {
+        if (SameName(n, v.device)) return true;
+      }
+    }
+  }
+  *error = Diagnostic(v.where, "device '" + v.device +
+                                   "' is in no <axis device=...>, so no point uses it and "
+                                   "varying its '" +
+                                   v.param + "' would change nothing");
+  return false;
+}
+
+}  // namespace
+
 bool CheckToleranceParams(const SweepSpec& spec, Diagnostic* error) {
   for (const VarySpec& v : spec.tolerances.vary) {
     auto failed = [&](const std::string& message) {
       *error = Diagnostic(v.where, message);
       return false;
     };
+    if (v.OnDevice()) {
+      if (!CheckVariedDevice(spec, v, error)) return false;
+      continue;
+    }
     for (const AxisGroup& g : spec.groups) {
       for (const AxisSpec& a : g.axes) {
         if (a.device_roles.empty() && SameName(a.param, v.param)) {

@@ -14,7 +14,11 @@ namespace zvsmap {
 /// How one parameter spreads around its nominal value.
 struct VarySpec {
   enum class Spread { kUniform, kNormal, kCorners };
+  /// A template parameter (`device` empty), or a parameter of the named
+  /// <device>'s switch subcircuit (`<vary device="fast" param="coss_f">`): one
+  /// draw per variant, taken by every switch that uses the device.
   std::string param;
+  std::string device;
   /// The half-width of the band: a fraction of the nominal value (`within="10%"`)
   /// or an absolute amount (`within="50n"`). Corners sit at nominal ± within.
   bool relative = true;
@@ -23,6 +27,10 @@ struct VarySpec {
   /// kNormal: the standard deviation, in the same form as `within` (default within / 3).
   double sigma = 0;
   SourceLocation where;
+
+  /// "L", or "fast.coss_f" for a device's parameter (corner names, messages).
+  std::string Label() const { return device.empty() ? param : device + "." + param; }
+  bool OnDevice() const { return !device.empty(); }
 
   /// The value at `deviate` bands (or sigmas, for kNormal samples) from `nominal`.
   double At(double nominal, double offset) const {

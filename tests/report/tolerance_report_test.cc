@@ -167,5 +167,28 @@ TEST_F(ToleranceReportTest, SummaryXmlCarriesTheWorstCornerAndTheYield) {
   EXPECT_EQ(e.attribute("worst-sample").as_int(), 5);
 }
 
+// A tolerance on a device's parameter: <vary device=...> in summary.xml, valid
+// against the schema (sweeps/schema/zvsmap-summary.xsd), and its corners named
+// "device.param" in the worst-corner attribute.
+TEST_F(ToleranceReportTest, DeviceParameterVaryIsNamedWithItsDevice) {
+  VarySpec& v = spec_.tolerances.vary[0];
+  v.device = "lin";
+  v.param = "coss_f";
+  std::vector<Point> nominal = {points_[0]};
+  std::vector<PointResult> nominal_results = {results_[0]};
+  ReportBasis basis(ReportInput{spec_, tmpl_, nominal, nominal_results});
+  basis.tolerance = Summary();
+  pugi::xml_document doc;
+  BuildSummaryXml(basis, {}, &doc);
+  pugi::xml_node vary = doc.select_node("/zvs-summary/tolerances/vary").node();
+  EXPECT_STREQ(vary.attribute("device").value(), "lin");
+  EXPECT_STREQ(vary.attribute("param").value(), "coss_f");
+  pugi::xml_node e = doc.select_node("//edge[@name='leg.high_on']").node();
+  EXPECT_STREQ(e.attribute("worst-energy-corner").value(), "lin.coss_f+");
+  std::string path = testing_report::TempDir("tolerance_device") + "/summary.xml";
+  ASSERT_TRUE(doc.save_file(path.c_str()));
+  EXPECT_EQ(testing_report::ValidateSummary(path), 0);
+}
+
 }  // namespace
 }  // namespace zvsmap

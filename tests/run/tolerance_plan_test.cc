@@ -5,6 +5,8 @@
 #include <gtest/gtest.h>
 
 #include "check_fixture.h"
+#include "core/spice_number.h"
+#include "core/text.h"
 #include "run/point_evaluator.h"
 #include "run/run_plan.h"
 #include "run/sweep_setup.h"
@@ -82,6 +84,97 @@ TEST_F(TolerancePlanTest, AChangedBlockRehashesTheVariantsOnly) {
   ASSERT_EQ(hp.size(), 2u);
   EXPECT_EQ(hp[0], ha[0]);
   EXPECT_EQ(hp[1], ha[1]);
+}
+
+// A tolerance on a device's subcircuit parameter: the generic zsw_linear
+// (netlists/switches.lib) on both switches with its output capacitance
+// coss_f set to 2n, varied by 10 % at the two corners.
+std::string DeviceBlock(const std::string& params, const std::string& vary) {
+  return "  <device name=\"lin\" model=\"zsw_linear\"" + params +
+         "/>\n  <axis device=\"leg.high leg.low\" values=\"lin\"/>\n"
+         "  <tolerances corners=\"all\">\n    " +
+         vary + "\n  </tolerances>\n";
+}
+
+// The `instance` line of `deck` (its first token, case-insensitive).
+std::string InstanceLine(const Deck& deck, const std::string& instance) {
+  for (const DeckLine& l : deck.lines) {
+    if (Lower(l.text.substr(0, instance.size() + 1)) == instance + " ") return l.text;
+  }
+  return "";
+}
+
+TEST_F(TolerancePlanTest, DeviceParameterVariantsRenderTheirValueOnEverySwitch) {
+  PreparedSweep sweep = Prepare(DeviceBlock(
+      " params=\"coss_f=2n\"", "<vary device=\"lin\" param=\"coss_f\" within=\"10%\"/>"));
+  ASSERT_EQ(sweep.points.size(), 2u + 2 * 2);  // 2 nominal points, 2 corners each
+  const Point& low = sweep.points[2];          // nominal 0, lin.coss_f-
+  const Point& high = sweep.points[3];         // nominal 0, lin.coss_f+
+  ASSERT_EQ(high.device_params.size(), 1u);
+  EXPECT_EQ(high.device_params[0].device, "lin");
+  EXPECT_EQ(high.device_params[0].param, "coss_f");
+  EXPECT_DOUBLE_EQ(high.device_params[0].value, 2.2e-9);
+  EXPECT_DOUBLE_EQ(low.device_params[0].value, 1.8e-9);
+  EXPECT_TRUE(sweep.points[0].device_params.empty());  // the nominal point keeps the device's own
+  PointEvaluator evaluator(sweep);
+  Deck nominal_deck, high_deck;
+  Diagnostic error;
+  ASSERT_TRUE(evaluator.RenderPointDeck(sweep.points[0], &nominal_deck, &error)) << error.Format();
+  ASSERT_TRUE(evaluator.RenderPointDeck(high, &high_deck, &error)) << error.Format();
+  // Both switches use the device, so both instance lines carry the drawn
+  // value, once, formatted as a number (FormatNumber), the device's own 2n gone.
+  for (const char* instance : {"xhs", "xls"}) {
+    std::string line = InstanceLine(high_deck, instance);
+    std::string drawn = " coss_f=" + FormatNumber(high.device_params[0].value);
+    EXPECT_NE(line.find(drawn), std::string::npos) << line;
+    EXPECT_EQ(line.find(drawn), line.rfind(drawn)) << line;  // once
+    EXPECT_EQ(line.substr(line.size() - drawn.size()), drawn) << line;
+    EXPECT_EQ(line.find("coss_f=2n"), std::string::npos) << line;
+    EXPECT_NE(InstanceLine(nominal_deck, instance).find("coss_f=2n"), std::string::npos);
+  }
+  // Each corner's deck differs, so its content hash does: a rerun never
+  // takes a stale result.
+  std::vector<std::string> hashes = PointContentHashes(sweep, evaluator);
+  EXPECT_NE(hashes[2], hashes[3]);
+  EXPECT_NE(hashes[0], hashes[2]);
+  // Without params the subcircuit's default (1n in netlists/switches.lib) is nominal.
+  PreparedSweep plain =
+      Prepare(DeviceBlock("", "<vary device=\"lin\" param=\"coss_f\" within=\"10%\"/>"));
+  ASSERT_EQ(plain.points.size(), 6u);
+  EXPECT_DOUBLE_EQ(plain.points[3].device_params[0].value, 1.1e-9);
+  // Another width rehashes the variants.
+  PreparedSweep wider = Prepare(DeviceBlock(
+      " params=\"coss_f=2n\"", "<vary device=\"lin\" param=\"coss_f\" within=\"20%\"/>"));
+  EXPECT_NE(PointContentHashes(wider, PointEvaluator(wider))[3], hashes[3]);
+}
+
+TEST_F(TolerancePlanTest, BadDeviceParameterIsRefusedWithItsLine) {
+  auto refused = [&](const std::string& params, const std::string& vary) {
+    std::ofstream(SweepPath()) << "<sweep>\n  <template file=\"" << Buck() << "\"/>\n"
+                               << "  <axis param=\"Iout\" values=\"2 4\"/>\n"
+                               << DeviceBlock(params, vary) << "</sweep>\n";
+    PreparedSweep sweep;
+    std::vector<Diagnostic> errors;
+    EXPECT_FALSE(PrepareSweep(SweepPath(), 0, &sweep, &errors));
+    if (errors.empty()) return std::string("no error");
+    return std::to_string(errors[0].where.line) + ": " + errors[0].message;
+  };
+  // Lines: device 4, axis 5, <tolerances> 6, <vary> 7.
+  std::string m = refused("", "<vary device=\"lin\" param=\"cos_f\" within=\"10%\"/>");
+  EXPECT_EQ(m.rfind("7: device 'lin': subcircuit 'zsw_linear' (", 0), 0u) << m;
+  EXPECT_NE(m.find("declares no parameter 'cos_f'"), std::string::npos) << m;
+  EXPECT_NE(m.find("did you mean 'coss_f'?"), std::string::npos) << m;
+  EXPECT_EQ(refused("", "<vary device=\"lin\" param=\"vds0_v\" within=\"1\"/>"),
+            "7: device 'lin': vds0_v is the circuit's initial drain-source voltage, not a model "
+            "parameter");
+  m = refused(" params=\"coss_f={2n}\"", "<vary device=\"lin\" param=\"coss_f\" within=\"10%\"/>");
+  EXPECT_EQ(m,
+            "7: device 'lin': the nominal value of 'coss_f' (its params=\"...\") is '{2n}', not a "
+            "plain number; set a number with <device params=\"coss_f=...\">");
+  EXPECT_EQ(
+      refused(" params=\"coss_f=0\"", "<vary device=\"lin\" param=\"coss_f\" within=\"10%\"/>"),
+      "7: device 'lin': 'coss_f' is 0, so a relative 'within' moves it nowhere; give an "
+      "amount (within=\"50n\") instead of a percentage");
 }
 
 TEST_F(TolerancePlanTest, UnknownVariedParameterIsRefusedWithItsLine) {

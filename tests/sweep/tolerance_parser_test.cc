@@ -138,6 +138,57 @@ TEST_F(ToleranceParserTest, BadBlockNamesItsLine) {
             "map first, then run the tolerances on the points you keep");
 }
 
+// <vary device=...>: a parameter of a <device>'s subcircuit. The device on
+// line 6, its axis on line 7, the block from line 8 (its <vary> on line 9).
+TEST_F(ToleranceParserTest, DeviceParameterIsReadAndChecked) {
+  auto with_device = [&](const std::string& axis, const std::string& varies) {
+    return Sweep("  <device name=\"fast\" model=\"zsw_linear\"/>\n" + axis +
+                 Block(" seed=\"1\" samples=\"4\"", varies));
+  };
+  const std::string axis = "  <axis device=\"leg.high leg.low\" values=\"fast\"/>\n";
+  SweepSpec spec;
+  Diagnostic error;
+  ASSERT_TRUE(
+      ParseSweepText(with_device(axis,
+                                 "    <vary device=\"fast\" param=\"COSS_F\" within=\"20%\"/>\n"
+                                 "    <vary param=\"L\" within=\"10%\"/>\n"),
+                     kPath, &spec, &error))
+      << error.Format();
+  ASSERT_EQ(spec.tolerances.vary.size(), 2u);
+  const VarySpec& v = spec.tolerances.vary[0];
+  EXPECT_TRUE(v.OnDevice());
+  EXPECT_EQ(v.device, "fast");
+  EXPECT_EQ(v.param, "coss_f");  // subcircuit parameters match in lower case
+  EXPECT_EQ(v.Label(), "fast.coss_f");
+  EXPECT_EQ(spec.tolerances.vary[1].Label(), "L");
+  // A device parameter is not looked up among the template's .params.
+  EXPECT_TRUE(CheckParamsKnown(spec, {"vin", "iout", "td", "l"}).empty());
+  // The device's parameter and a template parameter of the same name are two things.
+  EXPECT_TRUE(ParseSweepText(with_device(axis,
+                                         "    <vary device=\"fast\" param=\"L\" within=\"20%\"/>\n"
+                                         "    <vary param=\"L\" within=\"10%\"/>\n"),
+                             kPath, &spec, &error))
+      << error.Format();
+
+  EXPECT_EQ(
+      Error(with_device(axis, "    <vary device=\"fats\" param=\"coss_f\" within=\"20%\"/>\n")),
+      "9: unknown device 'fats' in <vary device=...> (declared: fast; did you mean "
+      "'fast'?)");
+  EXPECT_EQ(Error(with_device("", "    <vary device=\"fast\" param=\"coss_f\" within=\"20%\"/>\n")),
+            "8: device 'fast' is in no <axis device=...>, so no point uses it and varying its "
+            "'coss_f' would change nothing");
+  EXPECT_EQ(
+      Error(with_device(axis, "    <vary device=\"fa st\" param=\"coss_f\" within=\"20%\"/>\n")),
+      "9: bad device name 'fa st' (the name of a <device>: letters, digits, '_' and '-')");
+  EXPECT_EQ(Error(with_device(axis,
+                              "    <vary device=\"fast\" param=\"coss_f\" within=\"20%\"/>\n"
+                              "    <vary device=\"FAST\" param=\"Coss_F\" within=\"5%\"/>\n")),
+            "10: parameter 'FAST.coss_f' is varied twice (first on line 9)");
+  EXPECT_EQ(
+      Error(with_device(axis, "    <vary device=\"fast\" param=\"coss_f\" within=\"-1n\"/>\n")),
+      "9: 'within' must be positive, got '-1n'");
+}
+
 TEST_F(ToleranceParserTest, UnknownParameterGetsADidYouMean) {
   SweepSpec spec;
   Diagnostic error;
