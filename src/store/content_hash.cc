@@ -58,6 +58,9 @@ std::string PointContentHash(const std::string& canonical_deck, const SweepSpec&
   if (s.solver_aid != "auto") h = Fnv1a64(kSeparator + "solver_aid=" + s.solver_aid, h);
   // Probe runs add the window metrics (on by default; "off" stores none).
   h = Fnv1a64(kSeparator + (s.probe ? "probe=window" : "probe=off"), h);
+  // A warm start settles from the chain predecessor's state (the same
+  // steady state within the tolerance, not the same digits).
+  h = Fnv1a64(kSeparator + (s.warm_start ? "warm=chain" : "warm=off"), h);
   // A regulated loop (the template declares a control and the sweep does not
   // ask for open loop) settles at another operating point.
   if (tmpl.regulation.declared() && s.loop != SimulationSettings::Loop::kOpen) {

@@ -81,6 +81,10 @@ struct SimulationSettings {
   /// kDefault = regulated when the template declares a control, else open.
   enum class Loop { kDefault, kOpen, kRegulated };
   Loop loop = Loop::kDefault;
+  /// Warm starts (`warm-start="on"`, the default, or "off"): a point settles
+  /// from its chain predecessor's settled state and Jacobian
+  /// (sweep/chain_layout.h) instead of the average model.
+  bool warm_start = true;
   SourceLocation where;
 };
 
