@@ -322,8 +322,12 @@ bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowS
   jac->clear();
   if (warm && warm->HasJacobian(m)) *jac = warm->jacobian;
   bool reused = !jac->empty();
-  while (at.residual > options.tolerance && r->iterations < options.max_newton) {
-    ++r->iterations;
+  while (r->iterations < options.max_newton) {
+    const bool small = at.residual <= options.tolerance;
+    // Cold, a small residual is settled (the step before came from a fresh
+    // Jacobian, exact to the finite differences). Warm, it is settled only
+    // when the Newton step the Jacobian predicts is small too (below).
+    if (small && (!warm || jac->empty())) break;
     if (jac->empty() || !warm) {
       if (!Jacobian(shooter, at, unknowns, control, jac)) return false;
       ++r->jacobian_builds;
@@ -331,7 +335,16 @@ bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowS
     }
     std::vector<double> minus_f(at.f.size()), dz;
     for (size_t i = 0; i < at.f.size(); ++i) minus_f[i] = -at.f[i];
-    if (!Solve(*jac, minus_f, &dz)) {
+    const bool solved = Solve(*jac, minus_f, &dz);
+    // A slow mode (an output filter's) changes little in one period while
+    // the state is still far from the fixed point: the per-period residual
+    // then passes, the predicted distance to the fixed point (the Newton
+    // step, scaled like the residual) does not. A step-size test as in
+    // Dennis & Schnabel, "Numerical Methods for Unconstrained Optimization
+    // and Nonlinear Equations", 1983 (from memory).
+    if (small && solved && shooter.Residual(dz, at.run.ripple) <= options.tolerance) break;
+    ++r->iterations;
+    if (!solved) {
       if (!reused) return true;
       jac->clear();  // a reused Jacobian gone singular: rebuild it here
       continue;

@@ -120,6 +120,8 @@ struct SteadyStateOptions {
   /// Jacobian, Broyden-updated after
   /// each step, and builds a finite-difference Jacobian only when a step
   /// with a reused Jacobian fails to reduce the residual (or it is singular).
+  /// A warm search with a Jacobian is settled only when the Newton step it
+  /// predicts is within the tolerance too (scaled like the residual).
   const WarmStart* warm = nullptr;
 };
 

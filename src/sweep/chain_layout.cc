@@ -102,9 +102,10 @@ std::vector<std::vector<size_t>> ChainUnits(const std::vector<Point>& points, si
     const Point& p = points[k];
     if (Chained(p)) continue;
     size_t nominal = p.variant ? p.variant->nominal : k;
-    size_t unit = nominal >= begin && nominal < points.size() && unit_of[nominal] != ChainLink::kNone
-                      ? unit_of[nominal]
-                      : nominal;
+    size_t unit =
+        nominal >= begin && nominal < points.size() && unit_of[nominal] != ChainLink::kNone
+            ? unit_of[nominal]
+            : nominal;
     if (unit_of[k] == ChainLink::kNone) unit_of[k] = unit;
     units[unit].push_back(k);
   }

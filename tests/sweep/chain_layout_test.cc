@@ -85,8 +85,7 @@ TEST(ChainLayoutTest, VariantsFollowTheirNominalPoint) {
   EXPECT_EQ(links[6].previous, 1u);
   EXPECT_EQ(links[6].before_previous, ChainLink::kNone);
   EXPECT_EQ(links[7].previous, 4u);
-  EXPECT_EQ(ChainUnits(points, 0),
-            (std::vector<std::vector<size_t>>{{0, 1, 2, 6}, {3, 4, 5, 7}}));
+  EXPECT_EQ(ChainUnits(points, 0), (std::vector<std::vector<size_t>>{{0, 1, 2, 6}, {3, 4, 5, 7}}));
 }
 
 // A later refinement round chains only its own points: points before `begin`
