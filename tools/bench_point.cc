@@ -3,7 +3,10 @@
 // DEVELOPERS.md "Benchmarks").
 //
 //   (a) zvsmap now: PointEvaluator::Evaluate, as `zvsmap run` calls it.
-//   (b) later improvements: an empty slot, filled by the change that makes one.
+//   (b) warm starts: PointEvaluator::EvaluateWarm along the fixed chains of
+//       sweep/chain_layout.h, each point from its predecessor's settled state
+//       and Jacobian (ChainMemory, as a `zvsmap run` worker does), points in
+//       index order (every predecessor comes first).
 //   (c) brute force: the template's initial state simulated for N periods,
 //       then the measured periods; N is the smallest count that settles every
 //       point of the sweep within TOL (see below). tools/bench also times this
@@ -40,6 +43,7 @@
 #include <cstdio>
 #include <cstdlib>
 #include <cstring>
+#include <optional>
 #include <string>
 #include <vector>
 
@@ -49,6 +53,7 @@
 #include "bench_stages.h"
 #include "core/spice_number.h"
 #include "netlist/render.h"
+#include "run/chain_memory.h"
 #include "run/point_evaluator.h"
 #include "run/sweep_setup.h"
 #include "sim/ngspice_simulator.h"
@@ -169,9 +174,10 @@ struct PointRunner {
 
 struct PointRecord {
   bool ok = false;
-  double a_wall = 0, d_wall = 0, ref_per_period = 0;
-  int a_periods = 0, settle_at = -1;
-  PointValues a, d, ref;
+  double a_wall = 0, b_wall = 0, d_wall = 0, ref_per_period = 0;
+  int a_periods = 0, b_periods = 0, settle_at = -1;
+  bool b_ok = false;
+  PointValues a, b, d, ref;
   std::vector<std::vector<double>> boundary;  // reference boundary states
 };
 
@@ -186,6 +192,22 @@ double Max(const std::vector<double>& v) {
   double m = NAN;
   for (double x : v) m = std::isnan(m) ? x : std::max(m, x);
   return m;
+}
+
+// (b): the point at position `k` warm-started from `memory`, which then
+// remembers it.
+void EvaluateWarmStarted(const PreparedSweep& s, const Point& p, size_t k, Simulator& sim,
+                         ChainMemory* memory, PointRecord* rec) {
+  PointEvaluator ev(s.spec, s.tmpl);
+  std::optional<WarmStart> warm = memory->For(k);
+  PointResult r = ev.EvaluateWarm(p, sim, warm ? &*warm : nullptr);
+  r.index = k;
+  memory->Remember(r);
+  if (r.status != PointStatus::kOk) return;
+  rec->b_ok = true;
+  rec->b_wall = r.wall_s;
+  rec->b_periods = r.settle.periods;
+  rec->b = FromEdges(r.edges);
 }
 
 PointRecord EvaluatePoint(const PreparedSweep& s, const Point& p, Simulator& sim, int ref,
@@ -373,19 +395,23 @@ int main(int argc, char** argv) {
   NgspiceSimulator sim;
   const int measured = std::max(2, s.spec.simulation.measure_periods);
   std::vector<PointRecord> recs;
-  for (const Point& p : s.points) {
+  ChainMemory memory(ChainLinks(s.points, 0, InnermostIsDevice(s.spec)));
+  for (size_t k = 0; k < s.points.size(); ++k) {
+    const Point& p = s.points[k];
     recs.push_back(EvaluatePoint(s, p, sim, ref, tol));
+    EvaluateWarmStarted(s, p, k, sim, &memory, &recs.back());
     const PointRecord& r = recs.back();
-    std::printf("point %zu %s: a %d periods %.3f s, d %.3f s, settled at %d of %d, %s\n", p.index,
-                p.Describe().c_str(), r.a_periods, r.a_wall, r.d_wall, r.settle_at, ref,
-                r.ok ? "ok" : "FAILED");
+    std::printf("point %zu %s: a %d periods %.3f s, b %d periods %.3f s, d %.3f s, settled at %d "
+                "of %d, %s\n",
+                p.index, p.Describe().c_str(), r.a_periods, r.a_wall, r.b_periods, r.b_wall,
+                r.d_wall, r.settle_at, ref, r.ok && r.b_ok ? "ok" : "FAILED");
     std::fflush(stdout);
   }
   // (c): the period count that settles every point, then its accuracy.
   int slowest = 0;
   for (const auto& r : recs) slowest = std::max(slowest, r.ok ? r.settle_at : 0);
   int n_c = std::max(1, std::min(ref, (slowest + 9) / 10 * 10));
-  std::vector<double> a_wall, a_per, a_err, c_wall, c_err, d_wall, d_err;
+  std::vector<double> a_wall, a_per, a_err, b_wall, b_per, b_err, c_wall, c_err, d_wall, d_err;
   int failed = 0;
   for (size_t k = 0; k < recs.size(); ++k) {
     const PointRecord& r = recs[k];
@@ -402,6 +428,9 @@ int main(int argc, char** argv) {
     a_wall.push_back(r.a_wall);
     a_per.push_back(r.a_periods);
     a_err.push_back(RelError(r.a, r.ref));
+    b_wall.push_back(r.b_wall);
+    b_per.push_back(r.b_ok ? r.b_periods : NAN);
+    b_err.push_back(r.b_ok ? RelError(r.b, r.ref) : NAN);
     c_wall.push_back(r.ref_per_period * n_c + c_measure);
     c_err.push_back(RelError(c, r.ref));
     d_wall.push_back(r.d_wall);
@@ -423,6 +452,20 @@ int main(int argc, char** argv) {
   Result("a_periods_median", Median(a_per));
   Result("a_err_median", Median(a_err));
   Result("a_err_max", Max(a_err));
+  Result("b_wall", sum(b_wall));
+  Result("b_periods_median", Median(b_per));
+  Result("b_periods_mean", [&] {
+    double t = 0;
+    for (double x : b_per) t += x;
+    return b_per.empty() ? NAN : t / double(b_per.size());
+  }());
+  Result("a_periods_mean", [&] {
+    double t = 0;
+    for (double x : a_per) t += x;
+    return a_per.empty() ? NAN : t / double(a_per.size());
+  }());
+  Result("b_err_median", Median(b_err));
+  Result("b_err_max", Max(b_err));
   Result("c_wall", sum(c_wall));
   Result("c_err_median", Median(c_err));
   Result("c_err_max", Max(c_err));

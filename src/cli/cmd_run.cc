@@ -19,6 +19,7 @@
 #include "core/dir_lock.h"
 #include "run/memory_bound.h"
 #include "run/point_evaluator.h"
+#include "run/chain_memory.h"
 #include "run/progress.h"
 #include "run/run_plan.h"
 #include "run/sweep_setup.h"
@@ -28,6 +29,7 @@
 #include "store/content_hash.h"
 #include "store/run_store.h"
 #include "store/store_owner.h"
+#include "sweep/chain_layout.h"
 #include "sweep/sharding.h"
 
 namespace zvsmap::cli {
@@ -85,7 +87,7 @@ bool RemoveSavedWaveforms(const std::string& out_dir, std::string* error) {
 // grows to cover every point of the sweep so far. False (printed) on a
 // store or pool failure; an interruption sets `interrupted`.
 bool RunRound(const Options& opts, const CliSeams& seams, const PreparedSweep& sweep,
-              const PointEvaluator& evaluator, const std::vector<size_t>& mine,
+              const PointEvaluator& evaluator, size_t round_begin, const std::vector<size_t>& mine,
               uint64_t memory_bound, ProgressReporter::Mode mode, RunStore& store,
               std::vector<std::string>* hashes, size_t* kept, bool* interrupted) {
   // Which points must run: those without a stored result for the same content.
@@ -134,16 +136,39 @@ bool RunRound(const Options& opts, const CliSeams& seams, const PreparedSweep& s
   pool_options.memory_bound_bytes = memory_bound;
   ProgressReporter progress(stderr, mode, mine.size(), *kept, kept_failed);
   pool_options.on_tick = [&progress] { progress.Tick(); };
+  // Warm starts: each unit of chained points runs in one worker, in chain
+  // order; the memory (stored results loaded here, before the workers fork)
+  // gives each point its predecessor's settled state.
+  std::vector<PointResult> stored_results;
+  if (!CollectStoredResults(store, *hashes, &stored_results, &error)) {
+    std::fprintf(stderr, "zvsmap: error: %s\n", error.c_str());
+    return false;
+  }
+  ChainMemory memory(ChainLinks(sweep.points, round_begin, InnermostIsDevice(sweep.spec)));
+  for (const PointResult& r : stored_results) memory.Remember(r);
   WorkerSetup setup{[&](size_t index, Simulator& simulator) {
-                      return evaluator.Evaluate(sweep.points[index], simulator);
+                      std::optional<WarmStart> warm = memory.For(index);
+                      PointResult r = evaluator.EvaluateWarm(sweep.points[index], simulator,
+                                                             warm ? &*warm : nullptr);
+                      memory.Remember(r);
+                      return r;
                     },
                     [] { return std::make_unique<NgspiceSimulator>(); }};
   if (seams.workers) setup = seams.workers(std::move(setup));
   WorkerPool pool(std::move(setup.job), std::move(setup.factory), pool_options);
   g_stop = 0;
   InstallStopHandlers();
-  PoolOutcome outcome = pool.Run(
-      to_run,
+  std::vector<bool> runs(sweep.points.size(), false);
+  for (size_t i : to_run) runs[i] = true;
+  std::vector<std::vector<size_t>> units;
+  for (const auto& unit : ChainUnits(sweep.points, round_begin)) {
+    std::vector<size_t> left;
+    for (size_t i : unit)
+      if (runs[i]) left.push_back(i);
+    if (!left.empty()) units.push_back(std::move(left));
+  }
+  PoolOutcome outcome = pool.RunUnits(
+      units,
       [&](PointResult&& result) {
         const Point& point = sweep.points[result.index];
         if (store_error.empty() &&
@@ -318,7 +343,8 @@ int Run(const Options& opts, const CliSeams& seams) {
     }
     mine.insert(mine.end(), round_mine.begin(), round_mine.end());
     size_t kept_round = 0;
-    if (!RunRound(opts, seams, sweep, evaluator, round_mine, memory_bound, mode, *store, &hashes,
+    if (!RunRound(opts, seams, sweep, evaluator, round_begin, round_mine, memory_bound, mode,
+                  *store, &hashes,
                   &kept_round, &interrupted)) {
       return kExitInternal;
     }

@@ -186,6 +186,8 @@ std::string EncodeResult(const PointResult& r) {
   }
   w.Str(r.solver_aid);
   EncodeOperatingPoint(r.operating, &w);
+  w.U32(static_cast<uint32_t>(r.settle.jacobian.size()));
+  for (double v : r.settle.jacobian) w.F64(v);
   return w.Take();
 }
 
@@ -221,7 +223,15 @@ bool DecodeResult(const std::string& data, PointResult* out) {
     if (!DecodeEdge(&r, &e)) return false;
     out->edges.push_back(std::move(e));
   }
-  return r.Str(&out->solver_aid) && DecodeOperatingPoint(&r, &out->operating) && r.AtEnd();
+  uint32_t jacobian_count = 0;
+  if (!r.Str(&out->solver_aid) || !DecodeOperatingPoint(&r, &out->operating) ||
+      !r.U32(&jacobian_count) || jacobian_count > kMaxCount) {
+    return false;
+  }
+  out->settle.jacobian.assign(jacobian_count, 0.0);
+  for (double& v : out->settle.jacobian)
+    if (!r.F64(&v)) return false;
+  return r.AtEnd();
 }
 
 }  // namespace zvsmap

@@ -41,6 +41,11 @@ struct SettleRecord {
   /// loop) the control parameter's settled value: the parameters that
   /// reproduce the settled period when set on the point.
   std::vector<SettledState> initial_state;
+  /// When shooting settled: the Jacobian of the shooting function at the
+  /// settled unknowns (same order as initial_state), row-major, for the warm
+  /// start of the next point of its chain (run/chain_memory.h); empty when
+  /// none (not shooting, or an entry was not finite).
+  std::vector<double> jacobian;
 };
 
 }  // namespace zvsmap

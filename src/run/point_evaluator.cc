@@ -127,6 +127,19 @@ void RecordSettling(const SteadyStateResult& ss, const Template& tmpl, SettleRec
     out->initial_state.push_back({tmpl.states[i].init_param, ss.state[i]});
   }
   if (!std::isnan(ss.control)) out->initial_state.push_back({tmpl.regulation.param, ss.control});
+  // The Jacobian for the chain successor's warm start, only when every entry
+  // is finite (the store keeps numbers, not NaN) and it fits the unknowns.
+  const size_t m = out->initial_state.size();
+  if (ss.jacobian.size() != m) return;
+  std::vector<double> flat;
+  for (const auto& row : ss.jacobian) {
+    if (row.size() != m) return;
+    for (double v : row) {
+      if (!std::isfinite(v)) return;
+      flat.push_back(v);
+    }
+  }
+  out->jacobian = std::move(flat);
 }
 
 // Regulation tolerance: the average within 1e-4 of the set point, ten times
@@ -208,6 +221,15 @@ PointResult PointEvaluator::Evaluate(const Point& point, Simulator& simulator,
   return std::move(ev.result);
 }
 
+PointResult PointEvaluator::EvaluateWarm(const Point& point, Simulator& simulator,
+                                         const WarmStart* warm) const {
+  PointEvaluation ev;
+  Prepare(point, &ev);
+  ev.warm_start = warm;
+  Simulate(point, simulator, false, &ev);
+  return std::move(ev.result);
+}
+
 bool PointEvaluator::Prepare(const Point& point, PointEvaluation* out) const {
   *out = PointEvaluation();
   out->resolved = ResolveParams(tmpl_, point.values, &out->params, &out->error) &&
@@ -278,6 +300,7 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
   };
   SteadyStateOptions options = SettleOptions(sim);
   if (simulator.SettlesAsItMeasures()) options.trial_periods = MeasuredPeriods(sim);
+  if (sim.warm_start) options.warm = ev->warm_start;
   ControlUnknown control;
   const bool regulated = RegulatedControl(tmpl_, sim, ev->params, &control);
   SteadyStateResult ss =

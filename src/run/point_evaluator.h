@@ -12,6 +12,7 @@
 #include "result/point_result.h"
 #include "run/sweep_setup.h"
 #include "sim/simulator.h"
+#include "sim/steady_state.h"
 #include "sim/solver_aids.h"
 #include "sim/waveforms.h"
 #include "sweep/point.h"
@@ -39,6 +40,10 @@ struct PointEvaluation {
   Diagnostic hand_error;
   std::vector<FoundEdge> edges;  ///< one per result.edges entry, same order (ok points)
   Waveforms settled;             ///< the measured periods, when asked for and ok
+  /// Input to Simulate: the warm start from the chain predecessor
+  /// (run/chain_memory.h), or null for a cold start. Used only when the
+  /// sweep's <simulation warm-start> is on.
+  const WarmStart* warm_start = nullptr;
 };
 
 /// Evaluates points of one sweep. Holds no simulator: the caller passes the
@@ -66,6 +71,12 @@ class PointEvaluator {
   /// null it receives the measured periods' waveforms (for plots and checks).
   PointResult Evaluate(const Point& point, Simulator& simulator,
                        Waveforms* settled = nullptr) const;
+
+  /// Evaluate from `warm` (null: cold, as Evaluate). The result's
+  /// SettleRecord holds what the chain successor's warm start needs (the
+  /// settled unknowns and, shooting, the Jacobian; ChainMemory reads it).
+  PointResult EvaluateWarm(const Point& point, Simulator& simulator,
+                           const WarmStart* warm) const;
 
   /// Resolves the point's parameters and period and computes its hand
   /// calculation, without simulating. False when the point cannot be

@@ -76,7 +76,9 @@ bool ReadAll(int fd, char* data, size_t size) {
 struct WorkerPool::Worker {
   ChildProcess child;
   bool busy = false;
-  size_t index = 0;
+  size_t index = 0;           // the point it runs now (the front of `unit`)
+  std::deque<size_t> unit;    // the points of its unit not yet reported
+
   Clock::time_point started;
   std::string inbox;
   size_t points_done = 0;
@@ -158,31 +160,47 @@ int WorkerPool::WorkerMain(int fd) {
   }
   PoisonWatch watch(*simulator);
   for (;;) {
-    uint64_t index = 0;
-    if (!ReadAll(fd, reinterpret_cast<char*>(&index), sizeof index)) _exit(0);
-    PointResult result = RunJob(static_cast<size_t>(index), watch);
-    if (options_.memory_bound_bytes > 0 && result.status != PointStatus::kOk &&
-        result.reason.rfind("memory bound", 0) != 0 && LooksLikeAllocationFailure(result.reason)) {
-      result.reason = MemoryBoundReason(options_.memory_bound_bytes, result.reason);
+    // A unit: its size, then its point indices, run in this order.
+    uint64_t count = 0;
+    if (!ReadAll(fd, reinterpret_cast<char*>(&count), sizeof count) || count == 0) _exit(0);
+    std::vector<uint64_t> unit(count);
+    if (!ReadAll(fd, reinterpret_cast<char*>(unit.data()), count * sizeof(uint64_t))) _exit(0);
+    for (uint64_t index : unit) {
+      PointResult result = RunJob(static_cast<size_t>(index), watch);
+      if (options_.memory_bound_bytes > 0 && result.status != PointStatus::kOk &&
+          result.reason.rfind("memory bound", 0) != 0 &&
+          LooksLikeAllocationFailure(result.reason)) {
+        result.reason = MemoryBoundReason(options_.memory_bound_bytes, result.reason);
+      }
+      bool exiting = watch.poisoned();
+      std::string payload = EncodeResult(result);
+      char header[kHeader];
+      uint32_t size = static_cast<uint32_t>(payload.size());
+      std::memcpy(header, &size, 4);
+      header[4] = static_cast<char>(exiting ? kFlagExiting : 0);
+      if (!WriteAll(fd, header, kHeader) || !WriteAll(fd, payload.data(), payload.size())) {
+        _exit(0);
+      }
+      if (exiting) _exit(0);  // the parent runs the rest of the unit elsewhere
     }
-    bool exiting = watch.poisoned();
-    std::string payload = EncodeResult(result);
-    char header[kHeader];
-    uint32_t size = static_cast<uint32_t>(payload.size());
-    std::memcpy(header, &size, 4);
-    header[4] = static_cast<char>(exiting ? kFlagExiting : 0);
-    if (!WriteAll(fd, header, kHeader) || !WriteAll(fd, payload.data(), payload.size())) {
-      _exit(0);
-    }
-    if (exiting) _exit(0);
   }
 }
 
 PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
                             const std::function<void(PointResult&&)>& on_result,
                             const volatile std::sig_atomic_t* stop) {
+  std::vector<std::vector<size_t>> units;
+  for (size_t i : indices) units.push_back({i});
+  return RunUnits(units, on_result, stop);
+}
+
+PoolOutcome WorkerPool::RunUnits(const std::vector<std::vector<size_t>>& units,
+                                 const std::function<void(PointResult&&)>& on_result,
+                                 const volatile std::sig_atomic_t* stop) {
   PoolOutcome outcome;
-  std::deque<size_t> queue(indices.begin(), indices.end());
+  std::deque<std::vector<size_t>> queue;
+  for (const auto& u : units)
+    if (!u.empty()) queue.push_back(u);
   size_t want = std::min(static_cast<size_t>(jobs_), queue.size());
   while (workers_.size() < want) workers_.push_back(std::make_unique<Worker>());
   std::vector<double> first_durations;
@@ -199,9 +217,18 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
     r.wall_s = wall_s;
     on_result(std::move(r));
   };
+  // The unreported rest of a worker's unit goes back to the front of the
+  // queue (a worker that died or stopped after a point).
+  auto requeue_rest = [&](Worker& w) {
+    if (!w.unit.empty()) queue.emplace_front(w.unit.begin(), w.unit.end());
+    w.unit.clear();
+    w.busy = false;
+  };
   auto fail_point = [&](Worker& w, const std::string& reason) {
     w.busy = false;
+    if (!w.unit.empty()) w.unit.pop_front();
     report_failure(w.index, elapsed(w), reason);
+    requeue_rest(w);
   };
   auto busy_count = [&] {
     size_t n = 0;
@@ -228,8 +255,10 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
         ++outcome.workers_started;
       }
       if (w.busy) continue;
-      uint64_t index = queue.front();
-      if (!WriteAll(w.fd(), reinterpret_cast<const char*>(&index), sizeof index)) {
+      std::vector<uint64_t> message = {queue.front().size()};
+      message.insert(message.end(), queue.front().begin(), queue.front().end());
+      if (!WriteAll(w.fd(), reinterpret_cast<const char*>(message.data()),
+                    message.size() * sizeof(uint64_t))) {
         Retire(&w);  // died while idle; respawned on the next pass
         if (++idle_deaths > 3 * static_cast<size_t>(jobs_) + 3) {
           outcome.ok = false;
@@ -238,11 +267,14 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
         }
         continue;
       }
+      w.unit.assign(queue.front().begin(), queue.front().end());
       queue.pop_front();
       w.busy = true;
-      w.index = static_cast<size_t>(index);
+      w.index = w.unit.front();
       w.started = Clock::now();
-      if (options_.on_dispatch) options_.on_dispatch(w.index, w.child.pid());
+      if (options_.on_dispatch) {
+        for (size_t index : w.unit) options_.on_dispatch(index, w.child.pid());
+      }
     }
 
     double timeout_s =
@@ -300,11 +332,17 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
           continue;
         }
         if (first_durations.size() < 3) first_durations.push_back(elapsed(w));
-        w.busy = false;
         ++w.points_done;
         idle_deaths = 0;
+        w.unit.pop_front();
+        w.busy = !w.unit.empty();
+        if (w.busy) {
+          w.index = w.unit.front();
+          w.started = Clock::now();
+        }
         on_result(std::move(r));
       }
+      if (exiting && w.busy) requeue_rest(w);  // it stops after this point
       if (eof && !exiting) {
         // Died: reap it and say how.
         ChildEnd end = w.child.Reap();
@@ -330,8 +368,11 @@ PoolOutcome WorkerPool::Run(const std::vector<size_t>& indices,
       if (w.busy && elapsed(w) > timeout_s) {
         double took = elapsed(w);
         size_t index = w.index;
+        w.unit.pop_front();
+        std::deque<size_t> rest = std::move(w.unit);
         Retire(&w);
         report_failure(index, took, TimeoutReason(timeout_s));
+        if (!rest.empty()) queue.emplace_front(rest.begin(), rest.end());
       }
     }
   }

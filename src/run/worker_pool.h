@@ -77,6 +77,15 @@ class WorkerPool {
                   const std::function<void(PointResult&&)>& on_result,
                   const volatile std::sig_atomic_t* stop = nullptr);
 
+  /// Evaluates `units` of points: each unit whole in one worker, its points
+  /// in the given order (warm starts along a chain, sweep/chain_layout.h),
+  /// units handed out in the given order. A point that crashes or times out
+  /// fails as in Run; the unreported rest of its unit goes to a new worker,
+  /// first in the queue.
+  PoolOutcome RunUnits(const std::vector<std::vector<size_t>>& units,
+                       const std::function<void(PointResult&&)>& on_result,
+                       const volatile std::sig_atomic_t* stop = nullptr);
+
   /// The number of workers the pool runs at most.
   int jobs() const { return jobs_; }
 

@@ -262,46 +262,123 @@ double StepLimit(const Iterate& at, const std::vector<double>& dz,
   return lambda;
 }
 
+using Matrix = std::vector<std::vector<double>>;
+
+// A warm search makes a step's run a trial run (trial_periods long, kept as
+// the measured run when it settles) only when the residual before the step is
+// within this factor of the tolerance; from farther off the step seldom
+// settles, and a one-period run then costs less. On the demo the Broyden
+// steps from a reused Jacobian cut the residual 5-20 times (measured for
+// this change, DEVELOPERS.md "Warm starts").
+constexpr double kTrialWithin = 10;
+
+// One step from `at` to at.z + lambda * dz: a Newton trial run, or (`trial`
+// false) a plain one-period run. False when the run failed or the budget is
+// spent.
+bool TrialStep(Shooter& shooter, const Iterate& at, const std::vector<double>& dz, double lambda,
+               const SteadyStateOptions& options, bool trial, Iterate* next) {
+  next->z = at.z;
+  for (size_t i = 0; i < dz.size(); ++i) next->z[i] += lambda * dz[i];
+  const bool ok = trial ? shooter.Run(&next->z, std::max(1, options.trial_periods), &next->run,
+                                      -1, RunUse::kNewtonTrial)
+                        : shooter.Run(&next->z, 1, &next->run);
+  if (!ok) return false;
+  shooter.System(next->z, next->run, &next->f);
+  next->residual = shooter.SystemResidual(next->f, next->run);
+  return true;
+}
+
+// The secant update of `jac` for the step from `from` to `to`.
+void SecantUpdate(const Iterate& from, const Iterate& to, Matrix* jac) {
+  std::vector<double> dz(to.z.size()), df(to.f.size());
+  for (size_t i = 0; i < dz.size(); ++i) dz[i] = to.z[i] - from.z[i];
+  for (size_t i = 0; i < df.size(); ++i) df[i] = to.f[i] - from.f[i];
+  BroydenUpdate(dz, df, jac);
+}
+
 // Damped Newton from `start`: the best iterate in `*best`. Stops when the
 // residual is within tolerance, the iterations run out, the Jacobian is
 // singular or the line search stalls; false only when a run failed (result
-// filled) or the budget was spent.
+// filled) or the budget was spent. Cold (no options.warm), every iteration
+// builds its Jacobian by finite differences. Warm, the first run is a trial
+// run when the start is a prediction (the measured run when it settles; else
+// one period), a step's run is a trial run only near the tolerance
+// (kTrialWithin), and the warm Jacobian is reused and Broyden-updated after
+// each step; a reused Jacobian gets one try per
+// iteration, and when that step does not reduce the residual (or the matrix
+// is singular) it is rebuilt by finite differences at the same iterate.
+// `*jac` receives the Jacobian as the last accepted step left it.
 bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowState>& unknowns,
-            const ControlUnknown* control, const SteadyStateOptions& options, SteadyStateResult* r,
-            Iterate* best) {
+            const ControlUnknown* control, const SteadyStateOptions& options,
+            SteadyStateResult* r, Iterate* best, Matrix* jac) {
+  const WarmStart* warm = options.warm;
   Iterate at;
   at.z = std::move(start);
-  if (!shooter.Run(&at.z, 1, &at.run)) return false;
+  if (warm && warm->predicted) {
+    if (!shooter.Run(&at.z, std::max(1, options.trial_periods), &at.run, -1,
+                     RunUse::kNewtonTrial)) {
+      return false;
+    }
+  } else if (!shooter.Run(&at.z, 1, &at.run)) {
+    return false;
+  }
   shooter.System(at.z, at.run, &at.f);
   at.residual = shooter.SystemResidual(at.f, at.run);
   *best = at;
-  while (at.residual > options.tolerance && r->iterations < options.max_newton) {
-    ++r->iterations;
-    std::vector<std::vector<double>> jac;
-    if (!Jacobian(shooter, at, unknowns, control, &jac)) return false;
+  const size_t m = at.z.size();
+  jac->clear();
+  if (warm && warm->HasJacobian(m)) *jac = warm->jacobian;
+  bool reused = !jac->empty();
+  while (r->iterations < options.max_newton) {
+    const bool small = at.residual <= options.tolerance;
+    // Cold, a small residual is settled (the step before came from a fresh
+    // Jacobian, exact to the finite differences). Warm, it is settled only
+    // when the Newton step the Jacobian predicts is small too (below).
+    if (small && (!warm || jac->empty())) break;
+    if (jac->empty() || !warm) {
+      if (!Jacobian(shooter, at, unknowns, control, jac)) return false;
+      ++r->jacobian_builds;
+      reused = false;
+    }
     std::vector<double> minus_f(at.f.size()), dz;
     for (size_t i = 0; i < at.f.size(); ++i) minus_f[i] = -at.f[i];
-    if (!Solve(jac, minus_f, &dz)) return true;
+    const bool solved = Solve(*jac, minus_f, &dz);
+    // A slow mode (an output filter's) changes little in one period while
+    // the state is still far from the fixed point: the per-period residual
+    // then passes, the predicted distance to the fixed point (the Newton
+    // step, scaled like the residual) does not. A step-size test as in
+    // Dennis & Schnabel, "Numerical Methods for Unconstrained Optimization
+    // and Nonlinear Equations", 1983 (from memory).
+    if (small && solved && shooter.Residual(dz, at.run.ripple) <= options.tolerance) break;
+    ++r->iterations;
+    if (!solved) {
+      if (!reused) return true;
+      jac->clear();  // a reused Jacobian gone singular: rebuild it here
+      continue;
+    }
     double lambda = StepLimit(at, dz, unknowns, control);
     bool accepted = false;
-    for (int tries = 0; tries < 4; ++tries, lambda *= 0.5) {
+    const int tries_allowed = reused ? 1 : 4;
+    for (int tries = 0; tries < tries_allowed; ++tries, lambda *= 0.5) {
       Iterate next;
-      next.z = at.z;
-      for (size_t i = 0; i < dz.size(); ++i) next.z[i] += lambda * dz[i];
-      if (!shooter.Run(&next.z, std::max(1, options.trial_periods), &next.run, -1,
-                       RunUse::kNewtonTrial)) {
-        return false;
-      }
-      shooter.System(next.z, next.run, &next.f);
-      next.residual = shooter.SystemResidual(next.f, next.run);
-      if (next.residual < at.residual || tries == 3) {
-        accepted = next.residual < at.residual;
+      const bool trial = !warm || at.residual <= kTrialWithin * options.tolerance;
+      if (!TrialStep(shooter, at, dz, lambda, options, trial, &next)) return false;
+          if (next.residual < at.residual) {
+        SecantUpdate(at, next, jac);
+        accepted = true;
         at = std::move(next);
         break;
       }
+      if (reused) break;  // rebuild the Jacobian at `at` and step again
+      if (tries == 3) at = std::move(next);
     }
     if (at.residual < best->residual) *best = at;
-    if (!accepted) return true;  // Newton stalls: the caller falls back
+    if (accepted) {
+      reused = true;
+      continue;
+    }
+    if (!reused) return true;  // Newton stalls: the caller falls back
+    jac->clear();
   }
   return true;
 }
@@ -409,10 +486,18 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
   SteadyStateResult r;
   r.ok = true;
   std::vector<SlowState> unknowns = SearchUnknowns(states, control);
-  Shooter shooter(simulator, render, vectors, unknowns, states.size(), control, period_s, options,
-                  &r);
   std::vector<double> z(unknowns.size());
   for (size_t i = 0; i < z.size(); ++i) z[i] = unknowns[i].initial;
+  SteadyStateOptions opt = options;
+  if (opt.warm && opt.warm->Fits(z.size())) {
+    z = opt.warm->unknowns;
+    if (control) z.back() = std::min(control->max, std::max(control->min, z.back()));
+    r.warm_started = true;
+  } else {
+    opt.warm = nullptr;
+  }
+  Shooter shooter(simulator, render, vectors, unknowns, states.size(), control, period_s, opt,
+                  &r);
   r.state.assign(z.begin(), z.begin() + states.size());
   if (z.empty()) {
     // Nothing slow to settle: the circuit is periodic from the first period.
@@ -437,9 +522,11 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
   best.run.ripple.assign(states.size(), 0);
   if (options.method == SteadyStateOptions::Method::kShooting) {
     r.method = "shooting";
-    if (!Newton(shooter, z, unknowns, control, options, &r, &best) && !r.ok) return r;
+    Matrix jac;
+    if (!Newton(shooter, z, unknowns, control, opt, &r, &best, &jac) && !r.ok) return r;
     if (best.residual <= options.tolerance) {
       r.final_run = std::move(best.run.output);
+      r.jacobian = std::move(jac);
       return finish(best.z, best.run.ripple, best.residual, best.run.regulated_mean, true);
     }
   }
@@ -475,6 +562,29 @@ SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render
     if (o.ok || o.poisoned || o.error.find("imestep too small") == std::string::npos) break;
   }
   return o;
+}
+
+bool WarmStart::HasJacobian(size_t count) const {
+  if (!Fits(count) || jacobian.size() != count) return false;
+  for (const auto& row : jacobian) {
+    if (row.size() != count) return false;
+    for (double v : row)
+      if (!std::isfinite(v)) return false;
+  }
+  return true;
+}
+
+void BroydenUpdate(const std::vector<double>& dz, const std::vector<double>& df,
+                   std::vector<std::vector<double>>* jac) {
+  double dz2 = 0;
+  for (double v : dz) dz2 += v * v;
+  if (!(dz2 > 0)) return;
+  for (size_t i = 0; i < jac->size(); ++i) {
+    double jdz = 0;
+    for (size_t k = 0; k < dz.size(); ++k) jdz += (*jac)[i][k] * dz[k];
+    const double c = (df[i] - jdz) / dz2;
+    for (size_t k = 0; k < dz.size(); ++k) (*jac)[i][k] += c * dz[k];
+  }
 }
 
 std::vector<SlowState> SearchUnknowns(const std::vector<SlowState>& states,

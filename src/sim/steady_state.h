@@ -63,6 +63,33 @@ struct ControlUnknown {
   double tolerance = 1e-4;
 };
 
+/// A start from an already-settled neighbour (a warm start along a chain of
+/// points, run/chain_memory.h): its settled unknowns (the states, then the
+/// control when the search has one) and, when known, the Jacobian of F there
+/// (row-major, unknowns x unknowns; empty: none, the search builds one by
+/// finite differences when it needs one).
+struct WarmStart {
+  std::vector<double> unknowns;
+  std::vector<std::vector<double>> jacobian;
+  /// The unknowns are a prediction for this point (extrapolated along the
+  /// chain), likely settled already: the first run is then a trial run.
+  /// Otherwise (a neighbour's own state) it is a one-period run.
+  bool predicted = false;
+  /// Usable for a search over `count` unknowns.
+  bool Fits(size_t count) const { return count > 0 && unknowns.size() == count; }
+  /// The Jacobian is usable for `count` unknowns.
+  bool HasJacobian(size_t count) const;
+};
+
+/// Broyden's rank-one secant update of a Jacobian estimate `*jac` after the
+/// step `dz` changed F by `df`: J += (df - J dz) dz^T / (dz^T dz) (C. G.
+/// Broyden, "A class of methods for solving nonlinear simultaneous
+/// equations", Math. Comp. 19, 1965; the "good" update, his method 1, as
+/// recalled from memory, not checked against the paper's numbering). A zero step
+/// leaves J as it is.
+void BroydenUpdate(const std::vector<double>& dz, const std::vector<double>& df,
+                   std::vector<std::vector<double>>* jac);
+
 /// Limits and tolerances of the search.
 struct SteadyStateOptions {
   enum class Method { kShooting, kPeriods };
@@ -86,6 +113,16 @@ struct SteadyStateOptions {
   /// so a caller that measures `trial_periods` periods from the settled state
   /// has its measured run already (the run that verifies is the one measured).
   int trial_periods = 1;
+  /// A warm start (null: start from each unknown's `initial`, the average
+  /// model). Newton then starts from the warm unknowns (with a trial run when
+  /// they are a prediction, so a prediction that is already settled costs
+  /// `trial_periods` periods and is the measured run), steps with the warm
+  /// Jacobian, Broyden-updated after
+  /// each step, and builds a finite-difference Jacobian only when a step
+  /// with a reused Jacobian fails to reduce the residual (or it is singular).
+  /// A warm search with a Jacobian is settled only when the Newton step it
+  /// predicts is within the tolerance too (scaled like the residual).
+  const WarmStart* warm = nullptr;
 };
 
 /// The outcome. `ok` false means a simulation failed (error/log say why);
@@ -116,6 +153,14 @@ struct SteadyStateResult {
   /// `state` (and `control`); its periods are counted in `periods`. Not ok
   /// (empty) when the search settled otherwise (initial state, period by period).
   SimulationOutput final_run;
+  /// When shooting settled: the Jacobian of F at the settled unknowns as the
+  /// last Newton step left it (Broyden-updated with that step), for a warm
+  /// start of the next point; empty otherwise.
+  std::vector<std::vector<double>> jacobian;
+  /// Finite-difference Jacobians built (each one run per unknown).
+  int jacobian_builds = 0;
+  /// Started from a usable warm start (options.warm).
+  bool warm_started = false;
 };
 
 /// Finds the periodic steady state. `vectors` are the names to ask the

@@ -58,6 +58,9 @@ std::string PointContentHash(const std::string& canonical_deck, const SweepSpec&
   if (s.solver_aid != "auto") h = Fnv1a64(kSeparator + "solver_aid=" + s.solver_aid, h);
   // Probe runs add the window metrics (on by default; "off" stores none).
   h = Fnv1a64(kSeparator + (s.probe ? "probe=window" : "probe=off"), h);
+  // A warm start settles from the chain predecessor's state (the same
+  // steady state within the tolerance, not the same digits).
+  h = Fnv1a64(kSeparator + (s.warm_start ? "warm=chain" : "warm=off"), h);
   // A regulated loop settles at another operating point.
   if (RunsRegulated(tmpl.regulation, s)) {
     h = Fnv1a64(kSeparator + "loop=regulated", h);

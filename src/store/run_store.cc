@@ -30,6 +30,8 @@ constexpr const char* kSchema =
     " relative_difference, beyond_tolerance, PRIMARY KEY(point, edge, ord));"
     "CREATE TABLE IF NOT EXISTS settled_states(point INTEGER NOT NULL, ord INTEGER NOT NULL,"
     " init_param TEXT NOT NULL, value, PRIMARY KEY(point, ord));"
+    "CREATE TABLE IF NOT EXISTS settled_jacobians(point INTEGER NOT NULL, ord INTEGER NOT NULL,"
+    " value NOT NULL, PRIMARY KEY(point, ord));"
     "CREATE TABLE IF NOT EXISTS operating_points(point INTEGER PRIMARY KEY, loop TEXT NOT NULL,"
     " control, set_point, regulated_avg, p_in_w, p_out_w);"
     "CREATE TABLE IF NOT EXISTS operating_averages(point INTEGER NOT NULL, ord INTEGER NOT NULL,"
@@ -199,7 +201,8 @@ std::string RunStore::Where(const std::string& message) const {
 bool RunStore::DeleteAllPoints(std::string* error) {
   std::string why;
   if (!Exec("BEGIN IMMEDIATE; DELETE FROM comparisons; DELETE FROM metrics; DELETE FROM edges; "
-            "DELETE FROM settled_states; DELETE FROM operating_points; DELETE FROM operating_averages; "
+            "DELETE FROM settled_states; DELETE FROM settled_jacobians; "
+            "DELETE FROM operating_points; DELETE FROM operating_averages; "
             "DELETE FROM points; COMMIT;",
             &why)) {
     std::string ignored;
@@ -284,10 +287,12 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
     Statement del_s(db_, "DELETE FROM settled_states WHERE point = ?");
     Statement del_o(db_, "DELETE FROM operating_points WHERE point = ?");
     Statement del_a(db_, "DELETE FROM operating_averages WHERE point = ?");
+    Statement del_j(db_, "DELETE FROM settled_jacobians WHERE point = ?");
     del_o.Int(1, idx);
     del_a.Int(1, idx);
-    if (!del_o.ok() || !del_a.ok() || del_o.Step() != SQLITE_DONE ||
-        del_a.Step() != SQLITE_DONE) {
+    del_j.Int(1, idx);
+    if (!del_o.ok() || !del_a.ok() || !del_j.ok() || del_o.Step() != SQLITE_DONE ||
+        del_a.Step() != SQLITE_DONE || del_j.Step() != SQLITE_DONE) {
       return fail("delete");
     }
     del_m.Int(1, idx);
@@ -328,6 +333,15 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
       state.Text(3, r.settle.initial_state[k].init_param);
       state.Double(4, r.settle.initial_state[k].value);
       if (state.Step() != SQLITE_DONE) return fail("insert settled state");
+    }
+    Statement jac(db_, "INSERT INTO settled_jacobians(point, ord, value) VALUES(?,?,?)");
+    if (!jac.ok()) return fail("prepare");
+    for (size_t k = 0; k < r.settle.jacobian.size(); ++k) {
+      jac.Reset();
+      jac.Int(1, idx);
+      jac.Int(2, static_cast<long long>(k));
+      jac.Double(3, r.settle.jacobian[k]);
+      if (jac.Step() != SQLITE_DONE) return fail("insert settled Jacobian");
     }
     if (!SaveOperatingPoint(idx, r.operating)) return fail("insert operating point");
 
@@ -444,7 +458,9 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
                         " relative_difference, beyond_tolerance FROM comparisons"
                         " ORDER BY point, edge, ord");
   Statement states(db_, "SELECT point, init_param, value FROM settled_states ORDER BY point, ord");
-  if (!points.ok() || !edges.ok() || !metrics.ok() || !comparisons.ok() || !states.ok()) {
+  Statement jacobians(db_, "SELECT point, value FROM settled_jacobians ORDER BY point, ord");
+  if (!points.ok() || !edges.ok() || !metrics.ok() || !comparisons.ok() || !states.ok() ||
+      !jacobians.ok()) {
     return fail();
   }
   int rc;
@@ -469,6 +485,11 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
     if (it != out->end()) {
       it->second.settle.initial_state.push_back({states.ColText(1), states.ColDouble(2)});
     }
+  }
+  if (rc != SQLITE_DONE) return fail();
+  while ((rc = jacobians.Step()) == SQLITE_ROW) {
+    auto it = out->find(static_cast<size_t>(jacobians.ColInt(0)));
+    if (it != out->end()) it->second.settle.jacobian.push_back(jacobians.ColDouble(1));
   }
   if (rc != SQLITE_DONE) return fail();
   while ((rc = edges.Step()) == SQLITE_ROW) {

@@ -1,7 +1,10 @@
 #include "sweep/sharding.h"
 
+#include <algorithm>
 #include <cerrno>
 #include <cstdlib>
+
+#include "sweep/chain_layout.h"
 
 namespace zvsmap {
 
@@ -117,11 +120,11 @@ std::vector<size_t> ShardPointIndices(size_t total_points, const ShardSpec& shar
 std::vector<size_t> ShardPointsOf(const std::vector<Point>& points, size_t begin,
                                   const ShardSpec& shard) {
   std::vector<size_t> out;
-  for (size_t k = begin; k < points.size(); ++k) {
-    const Point& p = points[k];
-    size_t group = p.variant && p.variant->nominal >= begin ? p.variant->nominal : k;
-    if ((group - begin) % shard.count == shard.index) out.push_back(k - begin);
+  std::vector<std::vector<size_t>> units = ChainUnits(points, begin);
+  for (size_t u = shard.index; u < units.size(); u += shard.count) {
+    for (size_t k : units[u]) out.push_back(k - begin);
   }
+  std::sort(out.begin(), out.end());
   return out;
 }
 

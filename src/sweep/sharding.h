@@ -42,12 +42,13 @@ bool ShardFromEnvironment(const std::function<const char*(const char*)>& getenv,
 /// all shards, which balances them when the cost varies smoothly over the grid.
 std::vector<size_t> ShardPointIndices(size_t total_points, const ShardSpec& shard);
 
-/// The shard's points among points[begin..]: positions k (from `begin`)
-/// whose group number % count == shard index, ascending. A point's group is
-/// its own position, a tolerance variant's that of its nominal point, so one
-/// shard runs a nominal point with all its variants (and the merged shards
-/// hold every variant of a point). Without variants the same as
-/// ShardPointIndices(points.size() - begin, shard).
+/// The shard's points among points[begin..]: positions k (from `begin`),
+/// ascending, of the work units (sweep/chain_layout.h: a chain along the
+/// innermost axis with the tolerance variants of its points) whose ordinal %
+/// count == shard index. So one shard runs every point a warm start chains
+/// together, a nominal point with all its variants (and the merged shards
+/// hold every variant of a point), and neighbouring chains go to different
+/// shards, which balances them when the cost varies smoothly over the grid.
 std::vector<size_t> ShardPointsOf(const std::vector<Point>& points, size_t begin,
                                   const ShardSpec& shard);
 

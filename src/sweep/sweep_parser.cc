@@ -471,7 +471,8 @@ bool Parser::ParseDerive(pugi::xml_node node) {
 bool Parser::ParseSimulation(pugi::xml_node node) {
   if (!Once(node) || !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol",
                                         "timeout", "settle", "settle-tolerance", "max-newton",
-                                        "max-periods", "solver-aid", "probe", "loop"})) {
+                                        "max-periods", "solver-aid", "probe", "loop",
+                                        "warm-start"})) {
     return false;
   }
   SimulationSettings& s = spec_->simulation;
@@ -564,6 +565,14 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
       return FailAttr(node, "loop", "'loop' must be 'regulated' or 'open', got '" + loop + "'");
     }
     s.loop = loop == "open" ? SimulationSettings::Loop::kOpen : SimulationSettings::Loop::kRegulated;
+  }
+  if (node.attribute("warm-start")) {
+    std::string warm = node.attribute("warm-start").value();
+    if (warm != "on" && warm != "off") {
+      return FailAttr(node, "warm-start",
+                      "'warm-start' must be 'on' or 'off', got '" + warm + "'");
+    }
+    s.warm_start = warm == "on";
   }
   // Checked against the aid names in PrepareSweep (run/, which sees sim/).
   if (node.attribute("solver-aid")) s.solver_aid = node.attribute("solver-aid").value();

@@ -81,6 +81,12 @@ struct SimulationSettings {
   /// kDefault = regulated when the template declares a control, else open.
   enum class Loop { kDefault, kOpen, kRegulated };
   Loop loop = Loop::kDefault;
+  /// Warm starts (`warm-start="on"`, or "off", the default): a point settles
+  /// from its chain predecessor's settled state and Jacobian
+  /// (sweep/chain_layout.h) instead of the average model. Off by default: on
+  /// the bench's dense grid a warm point's worst error was 0.505 % against
+  /// 0.152 % cold (DEVELOPERS.md "Warm starts").
+  bool warm_start = false;
   SourceLocation where;
 };
 

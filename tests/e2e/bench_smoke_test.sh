@@ -15,7 +15,8 @@ need "demo: 2 points"
 need "dense grid: 2 points"
 need "wall s  x floor periods/pt  err med  err max"
 # Each measured method: two sweeps x five figures, none left blank.
-for row in "(a) zvsmap run -j 1" "(a) zvsmap, evaluation in-process" \
+for row in "(a) zvsmap run -j 1, cold starts" "(a) zvsmap, evaluation in-process" \
+           "(b) zvsmap run -j 1, warm starts" "(b) warm starts, in-process" \
            "(c) plain ngspice -b batch loop" "(c) same periods, in-process" \
            "(d) one-period floor, in-process"; do
   line=$(grep -F -- "$row" "$out" || true)
@@ -23,7 +24,7 @@ for row in "(a) zvsmap run -j 1" "(a) zvsmap, evaluation in-process" \
   n=$(echo "$line" | cut -d'|' -f2-3 | tr '|' ' ' | grep -o -E '[0-9]+\.[0-9]+' | wc -l)
   [ "$n" -eq 10 ] || { echo "row '$row' has $n figures, not 10"; fail=1; }
 done
-need "(b) later improvements"
+need "with warm starts: "
 need "faster than the plain ngspice batch loop"
 for stage in render load setup stepping copy unload analysis store other; do
   grep -q -E "^$stage +[0-9.]+% +[0-9.]+%" "$out" || { echo "missing stage: $stage"; fail=1; }

@@ -27,8 +27,10 @@ check_sweep() {
   python3 "$compare" fine-sweep "$sweep" "$work/$name-refined/summary.xml" "$work/$name-fine.xml"
   "$zvsmap" run "$work/$name-fine.xml" --out "$work/$name-fine" -j 2 -q 2>"$work/$name-fine.log" \
     || fail "$name fine run: $(tail -n 5 "$work/$name-fine.log")"
-  echo "$name: $(python3 "$compare" compare "$work/$name-refined/summary.xml" \
-    "$work/$name-fine/summary.xml")" || fail "$name: boundaries differ"
+  local verdict
+  verdict=$(python3 "$compare" compare "$work/$name-refined/summary.xml" \
+    "$work/$name-fine/summary.xml") || fail "$name: boundaries differ"
+  echo "$name: $verdict"
 }
 
 check_sweep demo "$src/sweeps/demo_refine_buck.xml"

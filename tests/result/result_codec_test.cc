@@ -22,7 +22,8 @@ PointResult Sample() {
               0,
               62,
               std::numeric_limits<double>::quiet_NaN(),
-              {{"il0", -4.25}, {"vc0", 11.9}}};
+              {{"il0", -4.25}, {"vc0", 11.9}},
+              {-0.5, 1.0 / 3.0, 2e-300, -7.25}};
   r.wall_s = 0.1;
   r.solver_aid = "settle-reltol";
   r.edges.push_back({"leg",
@@ -53,6 +54,8 @@ TEST(ResultCodecTest, EveryFieldRoundTripsBitForBit) {
   EXPECT_TRUE(SameBits(out.wall_s, 0.1));
   EXPECT_EQ(out.solver_aid, "settle-reltol");
   EXPECT_EQ(out.settle.initial_state, in.settle.initial_state);
+  ASSERT_EQ(out.settle.jacobian.size(), 4u);
+  for (size_t k = 0; k < 4; ++k) EXPECT_TRUE(SameBits(out.settle.jacobian[k], in.settle.jacobian[k]));
   EXPECT_EQ(out.edges[0].criterion, "v_turn_on <= 10% of rail");
   ASSERT_EQ(out.edges.size(), 2u);
   EXPECT_EQ(out.edges[0].zvs, ZvsClass::kHard);

@@ -86,6 +86,35 @@ TEST(WorkerPoolTest, EveryPointIsReportedExactlyOnce) {
   }
 }
 
+// Units run whole in one worker, in their order; a crash fails only its
+// point and the rest of its unit still runs (in a new worker).
+TEST(WorkerPoolTest, UnitsRunWholeInOneWorkerInTheirOrder) {
+  WorkerPoolOptions options;
+  options.jobs = 2;
+  WorkerSetup setup = Faulty(Echo, NoSim(), "segv:6");
+  WorkerPool pool(setup.job, setup.factory, options);
+  std::vector<std::vector<size_t>> units = {{2, 0, 1}, {3, 4}, {5, 6, 7, 8}};
+  std::vector<size_t> order;
+  std::map<size_t, PointResult> results;
+  PoolOutcome outcome = pool.RunUnits(units, [&](PointResult&& r) {
+    order.push_back(r.index);
+    results[r.index] = std::move(r);
+  });
+  EXPECT_TRUE(outcome.ok) << outcome.error;
+  ASSERT_EQ(results.size(), 9u);
+  EXPECT_EQ(results[6].reason, "crash (signal 11)");
+  auto pid = [&](size_t i) { return results[i].edges.at(0).Get("pid"); };
+  EXPECT_EQ(pid(2), pid(0));
+  EXPECT_EQ(pid(0), pid(1));
+  EXPECT_EQ(pid(3), pid(4));
+  EXPECT_EQ(pid(7), pid(8));
+  EXPECT_NE(pid(5), pid(7));  // the unit's rest went to a new worker
+  for (const auto& unit : units) {
+    auto at = [&](size_t i) { return std::find(order.begin(), order.end(), i) - order.begin(); };
+    for (size_t k = 1; k < unit.size(); ++k) EXPECT_LT(at(unit[k - 1]), at(unit[k]));
+  }
+}
+
 TEST(WorkerPoolTest, FaultSwitchHangCrashAndExitCallbackFailOnlyTheirPoints) {
   WorkerPoolOptions options;
   options.jobs = 2;

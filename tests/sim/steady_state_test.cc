@@ -296,6 +296,153 @@ TEST(SteadyStateTest, AControlOutOfRangeIsReportedUnsettled) {
   EXPECT_LT(r.periods, options.max_periods / 2);
 }
 
+// Broyden's update, worked by hand on a 2x2 example (C. G. Broyden, "A class
+// of methods for solving nonlinear simultaneous equations", Math. Comp. 19,
+// 1965: J+ = J + (df - J dz) dz^T / (dz^T dz)). J = I, dz = (1, 1),
+// df = (2, 0): J dz = (1, 1), df - J dz = (1, -1), dz^T dz = 2, so
+// J+ = I + [[0.5, 0.5], [-0.5, -0.5]] = [[1.5, 0.5], [-0.5, 0.5]].
+TEST(SteadyStateTest, BroydenUpdateMatchesAHandWorkedExample) {
+  std::vector<std::vector<double>> jac = {{1, 0}, {0, 1}};
+  BroydenUpdate({1, 1}, {2, 0}, &jac);
+  EXPECT_DOUBLE_EQ(jac[0][0], 1.5);
+  EXPECT_DOUBLE_EQ(jac[0][1], 0.5);
+  EXPECT_DOUBLE_EQ(jac[1][0], -0.5);
+  EXPECT_DOUBLE_EQ(jac[1][1], 0.5);
+  // The secant condition J+ dz = df holds, and a direction orthogonal to dz,
+  // (1, -1), is mapped as before (J+ v = J v = v): the two defining
+  // properties of the update (same paper).
+  EXPECT_DOUBLE_EQ(jac[0][0] + jac[0][1], 2);
+  EXPECT_DOUBLE_EQ(jac[1][0] + jac[1][1], 0);
+  EXPECT_DOUBLE_EQ(jac[0][0] - jac[0][1], 1);
+  EXPECT_DOUBLE_EQ(jac[1][0] - jac[1][1], -1);
+  // A zero step changes nothing.
+  BroydenUpdate({0, 0}, {1, 1}, &jac);
+  EXPECT_DOUBLE_EQ(jac[0][0], 1.5);
+}
+
+// A warm start at the fixed point with trial runs as long as the measured
+// run: the first run is the check and the measured run, nothing else runs.
+TEST(SteadyStateTest, AWarmStartThatIsSettledCostsOnlyTheMeasuredRun) {
+  AffineMapSimulator sim;
+  double fixed[2];
+  sim.FixedPoint(fixed);
+  WarmStart warm;
+  warm.unknowns = {fixed[0], fixed[1]};
+  warm.predicted = true;
+  SteadyStateOptions options;
+  options.trial_periods = 2;
+  options.warm = &warm;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  EXPECT_TRUE(r.warm_started);
+  EXPECT_EQ(r.iterations, 0);
+  EXPECT_EQ(r.periods, 2);
+  EXPECT_EQ(sim.runs, 1);
+  ASSERT_TRUE(r.final_run.ok);
+  EXPECT_NEAR(r.state[0], fixed[0], 1e-12);
+}
+
+// Warm from a neighbour's state with the exact Jacobian of F(x) = A x + b - x
+// (A - I, linear algebra): one Newton step, no finite-difference run, and the
+// same fixed point a cold start finds.
+TEST(SteadyStateTest, AWarmJacobianSavesTheFiniteDifferenceRuns) {
+  AffineMapSimulator sim;
+  SteadyStateOptions cold_options;
+  cold_options.trial_periods = 2;
+  SteadyStateResult cold =
+      FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, cold_options);
+  ASSERT_TRUE(cold.settled);
+  EXPECT_EQ(cold.jacobian_builds, 1);
+  // The Jacobian handed out is the (exact) finite-difference one: A - I.
+  ASSERT_EQ(cold.jacobian.size(), 2u);
+  EXPECT_NEAR(cold.jacobian[0][0], sim.a[0][0] - 1, 1e-6);
+  EXPECT_NEAR(cold.jacobian[0][1], sim.a[0][1], 1e-6);
+  EXPECT_NEAR(cold.jacobian[1][0], sim.a[1][0], 1e-6);
+  EXPECT_NEAR(cold.jacobian[1][1], sim.a[1][1] - 1, 1e-6);
+
+  WarmStart warm;
+  warm.unknowns = {cold.state[0] + 0.5, cold.state[1] - 0.3};  // a neighbour's state
+  warm.jacobian = cold.jacobian;
+  SteadyStateOptions options = cold_options;
+  options.warm = &warm;
+  sim.runs = 0;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  EXPECT_EQ(r.jacobian_builds, 0);
+  EXPECT_EQ(r.iterations, 1);
+  // A one-period run from the neighbour's state, then the step: its residual
+  // before the step is far above the tolerance, so a one-period run too, and
+  // the measured run from the settled state.
+  EXPECT_LE(r.periods, 4);
+  EXPECT_NEAR(r.state[0], cold.state[0], 1e-9);
+  EXPECT_NEAR(r.state[1], cold.state[1], 1e-9);
+}
+
+// A wrong warm Jacobian (the identity) does not reduce the residual: the
+// search rebuilds it by finite differences at the same iterate and settles
+// to the same fixed point.
+TEST(SteadyStateTest, AWrongWarmJacobianIsRebuiltByFiniteDifferences) {
+  AffineMapSimulator sim;
+  double fixed[2];
+  sim.FixedPoint(fixed);
+  WarmStart warm;
+  warm.unknowns = {fixed[0] + 2, fixed[1] + 1};
+  warm.jacobian = {{1, 0}, {0, 1}};  // F's true Jacobian is A - I, about -I
+  SteadyStateOptions options;
+  options.trial_periods = 2;
+  options.warm = &warm;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  EXPECT_EQ(r.jacobian_builds, 1);
+  EXPECT_NEAR(r.state[0], fixed[0], 1e-9);
+  EXPECT_NEAR(r.state[1], fixed[1], 1e-9);
+}
+
+// A warm start whose size does not fit the unknowns is ignored (cold start).
+TEST(SteadyStateTest, AWarmStartOfTheWrongSizeStartsCold) {
+  AffineMapSimulator sim;
+  WarmStart warm;
+  warm.unknowns = {1.0};
+  SteadyStateOptions options;
+  options.warm = &warm;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.settled);
+  EXPECT_FALSE(r.warm_started);
+  EXPECT_EQ(r.periods, 4);  // as ShootingSolvesAnAffineMapInOneNewtonStep
+}
+
+// With a control unknown the warm unknowns carry the control last; a warm
+// control outside the admissible range is brought inside it.
+TEST(SteadyStateTest, AWarmStartCarriesTheControl) {
+  AffineMapSimulator sim = ControlledMap();
+  ControlUnknown control = ControlOnOut();
+  SteadyStateOptions options;
+  SteadyStateResult cold =
+      FindRegulatedSteadyState(sim, ControlRenderer(), kVectors, kStates, control, 1e-6, options);
+  ASSERT_TRUE(cold.settled);
+  WarmStart warm;
+  warm.unknowns = SettledUnknowns(cold);
+  ASSERT_EQ(warm.unknowns.size(), 3u);
+  warm.unknowns[0] += 1;
+  warm.jacobian = cold.jacobian;
+  options.warm = &warm;
+  SteadyStateResult r =
+      FindRegulatedSteadyState(sim, ControlRenderer(), kVectors, kStates, control, 1e-6, options);
+  ASSERT_TRUE(r.settled);
+  EXPECT_TRUE(r.warm_started);
+  EXPECT_EQ(r.jacobian_builds, 0);
+  EXPECT_NEAR(r.control, cold.control, 1e-6);
+  EXPECT_NEAR(r.state[0], cold.state[0], 1e-6);
+  warm.unknowns[2] = 1e6;  // far beyond max
+  SteadyStateResult clamped =
+      FindRegulatedSteadyState(sim, ControlRenderer(), kVectors, kStates, control, 1e-6, options);
+  ASSERT_TRUE(clamped.ok);
+  EXPECT_NEAR(clamped.control, cold.control, 1e-6);
+}
+
 TEST(SteadyStateTest, FailedRunIsReportedNotThrown) {
   struct Failing : Simulator {
     SimulationOutput Run(const std::string&, const std::vector<std::string>&, double) override {

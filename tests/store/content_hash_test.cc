@@ -69,5 +69,15 @@ TEST(PointContentHashTest, ProbeSettingCounts) {
   EXPECT_NE(on, PointContentHash("r1 a 0 1\n", spec, t));
 }
 
+// Warm-started results differ from cold ones within the settling tolerance,
+// so the switch is part of a point's content.
+TEST(PointContentHashTest, WarmStartSettingCounts) {
+  SweepSpec spec;
+  Template t = Parse(kTemplate);
+  std::string on = PointContentHash("r1 a 0 1\n", spec, t);
+  spec.simulation.warm_start = false;
+  EXPECT_NE(on, PointContentHash("r1 a 0 1\n", spec, t));
+}
+
 }  // namespace
 }  // namespace zvsmap

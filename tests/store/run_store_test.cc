@@ -39,7 +39,8 @@ PointResult FullResult() {
               4,
               17,
               0.1 + 0.2,
-              {{"il0", -4.0000000000000009}, {"vc0", -0.0}, {"x", 1e-300}}};
+              {{"il0", -4.0000000000000009}, {"vc0", -0.0}, {"x", 1e-300}},
+              {0.1, -0.2, 0.3, 1e-300, -0.0, 2.5, 1.0 / 7.0, -9.0, 4.0}};
   r.wall_s = 1.0 / 3.0;
   r.solver_aid = "rshunt";
   EdgeMeasurement e1{"leg", "high_on", ZvsClass::kPartial, "v_turn_on <= 4.8 V", {}};
@@ -74,6 +75,12 @@ void ExpectSame(const PointResult& a, const PointResult& b) {
   for (size_t i = 0; i < a.settle.initial_state.size(); ++i) {
     EXPECT_EQ(a.settle.initial_state[i].init_param, b.settle.initial_state[i].init_param);
     EXPECT_TRUE(SameBits(a.settle.initial_state[i].value, b.settle.initial_state[i].value));
+  }
+  // The Jacobian too, bit for bit: a resumed run warm-starts as the
+  // uninterrupted one did (run/chain_memory.h).
+  ASSERT_EQ(a.settle.jacobian.size(), b.settle.jacobian.size());
+  for (size_t i = 0; i < a.settle.jacobian.size(); ++i) {
+    EXPECT_TRUE(SameBits(a.settle.jacobian[i], b.settle.jacobian[i])) << i;
   }
   ASSERT_EQ(a.edges.size(), b.edges.size());
   for (size_t e = 0; e < a.edges.size(); ++e) {

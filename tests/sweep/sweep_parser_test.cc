@@ -467,6 +467,16 @@ TEST_F(SweepParserTest, ProbeIsOnUnlessSwitchedOff) {
             "3: 'probe' must be 'on' or 'off', got 'no'");
 }
 
+// Warm starts along chains: on by default, "off" starts every point from the
+// average model; any other value is refused at its line.
+TEST_F(SweepParserTest, WarmStartIsOnUnlessSwitchedOff) {
+  EXPECT_FALSE(Parse(Sweep("")).simulation.warm_start);  // off unless asked
+  EXPECT_TRUE(Parse(Sweep("  <simulation warm-start=\"on\"/>\n")).simulation.warm_start);
+  EXPECT_FALSE(Parse(Sweep("  <simulation warm-start=\"off\"/>\n")).simulation.warm_start);
+  EXPECT_EQ(Error(Sweep("  <simulation warm-start=\"yes\"/>\n")),
+            "3: 'warm-start' must be 'on' or 'off', got 'yes'");
+}
+
 // Numbers that read differently in SPICE than they look (core/spice_number.h;
 // ngspice source inpeval.c, INPevaluate).
 TEST_F(SweepParserTest, NumbersThatReadDifferentlyThanTheyLook) {
