@@ -498,13 +498,7 @@ std::vector<Plot> MakePlots(const ReportBasis& input) {
         plots.push_back(ZvsMapPlot(input, key, swept[1], swept[0], at));
         ++n;
       }
-      size_t k = 0;
-      for (; k < further.size(); ++k) {
-        size_t d = further[k];
-        if (++at[d] < static_cast<int>(grid.dims[d].values.size())) break;
-        at[d] = 0;
-      }
-      if (k == further.size()) break;
+      if (!grid.NextSlice(further, &at)) break;
     }
   }
   return plots;

@@ -337,13 +337,7 @@ std::vector<Plot> MakeToleranceMaps(const ReportBasis& input) {
       std::vector<int> at(grid.dims.size(), 0);
       for (int n = 0; n < kMaxMapsPerEdge; ++n) {
         plots.push_back(ToleranceMapPlot(input, key, view, x_dim, y_dim, at));
-        size_t k = 0;
-        for (; k < further.size(); ++k) {
-          size_t d = further[k];
-          if (++at[d] < static_cast<int>(grid.dims[d].values.size())) break;
-          at[d] = 0;
-        }
-        if (k == further.size()) break;
+        if (!grid.NextSlice(further, &at)) break;
       }
     }
   }

@@ -15,6 +15,14 @@ std::vector<size_t> Grid::SweptDims() const {
   return out;
 }
 
+bool Grid::NextSlice(const std::vector<size_t>& held, std::vector<int>* at) const {
+  for (size_t d : held) {
+    if (++(*at)[d] < static_cast<int>(dims[d].values.size())) return true;
+    (*at)[d] = 0;
+  }
+  return false;
+}
+
 namespace {
 
 // A dimension per axis group: a device axis is labelled by its roles and its

@@ -55,6 +55,10 @@ struct Grid {
   std::vector<std::vector<int>> coords;  ///< per entry of input.points; -1 when off the grid
   /// Dimensions with more than one value.
   std::vector<size_t> SweptDims() const;
+  /// Steps `*at` to the next combination of positions on the dimensions
+  /// `held` (a mixed-radix count, the first of `held` fastest); false when
+  /// every combination has been visited (`*at` is then back at the first).
+  bool NextSlice(const std::vector<size_t>& held, std::vector<int>* at) const;
 };
 
 /// Builds the grid from the sweep's axis groups. A point's position is the

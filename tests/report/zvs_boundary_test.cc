@@ -33,6 +33,25 @@ TEST(ZvsBoundaryTest, OneDimensionLinearMarginGivesExactZero) {
 // The words summary.xml and the map give each margin: the energy margin
 // says it does not consider the set dead time; the voltage difference is
 // about the turn-on itself (definitions in src/analysis/commutation.h).
+// Mixed-radix counting (common practice, no source): held dimensions of 2
+// and 3 values give 6 slices, the first held dimension fastest, then wrap.
+TEST(ZvsBoundaryTest, NextSliceVisitsEveryHeldCombinationOnce) {
+  Grid grid;
+  grid.dims.resize(4);
+  grid.dims[0].values = {1, 2, 3};
+  grid.dims[1].values = {1, 2, 3, 4};
+  grid.dims[2].values = {1, 2};
+  grid.dims[3].values = {1, 2, 3};
+  std::vector<int> at(4, 0);
+  std::vector<std::pair<int, int>> seen = {{at[2], at[3]}};
+  while (grid.NextSlice({2, 3}, &at)) seen.push_back({at[2], at[3]});
+  const std::vector<std::pair<int, int>> expected = {{0, 0}, {1, 0}, {0, 1},
+                                                     {1, 1}, {0, 2}, {1, 2}};
+  EXPECT_EQ(seen, expected);
+  EXPECT_EQ(at, std::vector<int>(4, 0));
+  EXPECT_FALSE(grid.NextSlice({}, &at));  // nothing held: one slice only
+}
+
 TEST(ZvsBoundaryTest, MarginWordsSayWhatEachMeasures) {
   auto s = MakeGrid({{"x", {0, 1}}}, [](const auto& v) { return v[0] - 0.5; });
   MarginSource voltage = ChooseMargin(s.results);
