@@ -6,7 +6,7 @@
 namespace zvsmap {
 
 ChainMemory::ChainMemory(std::vector<ChainLink> links)
-    : links_(std::move(links)), settled_(links_.size()), iterations_(links_.size(), 0) {}
+    : links_(std::move(links)), settled_(links_.size()) {}
 
 void ChainMemory::Remember(const PointResult& result) {
   if (result.index >= settled_.size()) return;
@@ -23,7 +23,6 @@ void ChainMemory::Remember(const PointResult& result) {
     }
   }
   settled_[result.index] = std::move(w);
-  iterations_[result.index] = result.settle.iterations;
 }
 
 std::optional<WarmStart> ChainMemory::For(size_t index) const {
@@ -37,8 +36,6 @@ std::optional<WarmStart> ChainMemory::For(size_t index) const {
     for (size_t i = 0; i < w.unknowns.size(); ++i) {
       w.unknowns[i] += link.step_ratio * (w.unknowns[i] - older[i]);
     }
-    const bool previous_predicted = links_[link.previous].before_previous != ChainLink::kNone;
-    w.predicted = !previous_predicted || iterations_[link.previous] == 0;
   }
   return w;
 }

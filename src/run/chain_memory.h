@@ -33,16 +33,11 @@ class ChainMemory {
   /// methods: Allgower & Georg, "Numerical Continuation Methods", Springer
   /// 1990, REFERENCES sec. 11; chapter not checked),
   /// else they are the predecessor's; the Jacobian is the predecessor's.
-  /// A prediction is marked likely settled (WarmStart::predicted: its first
-  /// run is a trial run) unless the predecessor was itself predicted and
-  /// still needed Newton steps: along a coarse line the predictions miss, and
-  /// a one-period first run then costs less.
   std::optional<WarmStart> For(size_t index) const;
 
  private:
   std::vector<ChainLink> links_;
   std::vector<std::optional<WarmStart>> settled_;
-  std::vector<int> iterations_;  // each remembered point's Newton iterations
 };
 
 }  // namespace zvsmap

@@ -3,12 +3,14 @@
 #include <map>
 
 #include "store/content_hash.h"
+#include "sweep/chain_layout.h"
 
 namespace zvsmap {
 
 std::vector<std::string> PointContentHashes(const PreparedSweep& sweep,
                                             const PointEvaluator& evaluator) {
   std::vector<std::string> hashes(sweep.points.size());
+  std::vector<ChainLink> links;
   for (size_t i = 0; i < sweep.points.size(); ++i) {
     Deck deck;
     Diagnostic render_error;
@@ -24,6 +26,19 @@ std::vector<std::string> PointContentHashes(const PreparedSweep& sweep,
       canonical += "\n" + sweep.spec.tolerances.Canonical() + "\nvariant " +
                    (tag->kind == VariantTag::Kind::kCorner ? "corner " : "sample ") +
                    std::to_string(tag->number);
+    }
+    // A warm-started point settles from its chain predecessor's result, so
+    // that result is part of its content: a point is kept only when its
+    // predecessor's content is unchanged too (recursively along the chain).
+    // Links point to lower indices, whose hashes are final by now; the links
+    // over the whole sweep equal each refinement round's own (chains never
+    // cross rounds).
+    if (sweep.spec.simulation.warm_start) {
+      if (links.empty()) {
+        links = ChainLinks(sweep.points, 0, InnermostIsDevice(sweep.spec));
+      }
+      const size_t previous = links[i].previous;
+      if (previous != ChainLink::kNone) canonical += "\nwarm-started from " + hashes[previous];
     }
     hashes[i] = PointContentHash(canonical, sweep.spec, sweep.tmpl);
   }

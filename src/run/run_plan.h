@@ -14,6 +14,9 @@ namespace zvsmap {
 
 /// The content hash of every point (canonical deck + settings + version),
 /// index for index. A point that cannot be rendered hashes its render error.
+/// With warm starts, a point's hash covers its chain predecessor's hash too
+/// (sweep/chain_layout.h), so a point whose predecessor changed is redone
+/// and a kept result equals a fresh run's.
 std::vector<std::string> PointContentHashes(const PreparedSweep& sweep,
                                             const PointEvaluator& evaluator);
 

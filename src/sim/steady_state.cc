@@ -300,11 +300,9 @@ void SecantUpdate(const Iterate& from, const Iterate& to, Matrix* jac) {
 // residual is within tolerance, the iterations run out, the Jacobian is
 // singular or the line search stalls; false only when a run failed (result
 // filled) or the budget was spent. Cold (no options.warm), every iteration
-// builds its Jacobian by finite differences. Warm, the first run is a trial
-// run when the start is a prediction (the measured run when it settles; else
-// one period), a step's run is a trial run only near the tolerance
-// (kTrialWithin), and the warm Jacobian is reused and Broyden-updated after
-// each step; a reused Jacobian gets one try per
+// builds its Jacobian by finite differences. Warm, a step's run is a trial
+// run only near the tolerance (kTrialWithin), and the warm Jacobian is
+// reused and Broyden-updated after each step; a reused Jacobian gets one try per
 // iteration, and when that step does not reduce the residual (or the matrix
 // is singular) it is rebuilt by finite differences at the same iterate.
 // `*jac` receives the Jacobian as the last accepted step left it.
@@ -314,14 +312,7 @@ bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowS
   const WarmStart* warm = options.warm;
   Iterate at;
   at.z = std::move(start);
-  if (warm && warm->predicted) {
-    if (!shooter.Run(&at.z, std::max(1, options.trial_periods), &at.run, -1,
-                     RunUse::kNewtonTrial)) {
-      return false;
-    }
-  } else if (!shooter.Run(&at.z, 1, &at.run)) {
-    return false;
-  }
+  if (!shooter.Run(&at.z, 1, &at.run)) return false;
   shooter.System(at.z, at.run, &at.f);
   at.residual = shooter.SystemResidual(at.f, at.run);
   *best = at;

@@ -71,10 +71,6 @@ struct ControlUnknown {
 struct WarmStart {
   std::vector<double> unknowns;
   std::vector<std::vector<double>> jacobian;
-  /// The unknowns are a prediction for this point (extrapolated along the
-  /// chain), likely settled already: the first run is then a trial run.
-  /// Otherwise (a neighbour's own state) it is a one-period run.
-  bool predicted = false;
   /// Usable for a search over `count` unknowns.
   bool Fits(size_t count) const { return count > 0 && unknowns.size() == count; }
   /// The Jacobian is usable for `count` unknowns.
@@ -114,12 +110,11 @@ struct SteadyStateOptions {
   /// has its measured run already (the run that verifies is the one measured).
   int trial_periods = 1;
   /// A warm start (null: start from each unknown's `initial`, the average
-  /// model). Newton then starts from the warm unknowns (with a trial run when
-  /// they are a prediction, so a prediction that is already settled costs
-  /// `trial_periods` periods and is the measured run), steps with the warm
-  /// Jacobian, Broyden-updated after
-  /// each step, and builds a finite-difference Jacobian only when a step
-  /// with a reused Jacobian fails to reduce the residual (or it is singular).
+  /// model). Newton then starts from the warm unknowns with a one-period run
+  /// (a trial run there paid off too seldom: DEVELOPERS.md "Warm starts"),
+  /// steps with the warm Jacobian, Broyden-updated after each step, and
+  /// builds a finite-difference Jacobian only when a step with a reused
+  /// Jacobian fails to reduce the residual (or it is singular).
   /// A warm search with a Jacobian is settled only when the Newton step it
   /// predicts is within the tolerance too (scaled like the residual).
   const WarmStart* warm = nullptr;

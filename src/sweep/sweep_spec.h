@@ -84,8 +84,9 @@ struct SimulationSettings {
   /// Warm starts (`warm-start="on"`, or "off", the default): a point settles
   /// from its chain predecessor's settled state and Jacobian
   /// (sweep/chain_layout.h) instead of the average model. Off by default: on
-  /// the bench's dense grid a warm point's worst error was 0.505 % against
-  /// 0.152 % cold (DEVELOPERS.md "Warm starts").
+  /// a slice of the bench's 20 x 20 grid a warm point's worst error against
+  /// a 1,000-period reference was 3.2 % against 1.5 % cold (DEVELOPERS.md
+  /// "Warm starts").
   bool warm_start = false;
   SourceLocation where;
 };
