@@ -35,7 +35,9 @@
 // circuit per run against alter-and-rerun (bench_reload.cc), R repeats.
 // Usage: zvsmap_bench_point SWEEP [--ref REF] [--tol TOL] [--stages]
 //                           [--steps B1,B2,... [--ref-step R]] [--reload R]
-//                           [--first K] [--count N]
+//                           [--first K] [--count N] [--ref-cache FILE]
+// --ref-cache FILE keeps the references (computed once, read back on later
+// runs of the same sweep and --ref) to compare settling policies quickly.
 #include <algorithm>
 #include <chrono>
 #include <cmath>
@@ -198,7 +200,9 @@ double Max(const std::vector<double>& v) {
 // remembers it.
 void EvaluateWarmStarted(const PreparedSweep& s, const Point& p, size_t k, Simulator& sim,
                          ChainMemory* memory, PointRecord* rec) {
-  PointEvaluator ev(s.spec, s.tmpl);
+  SweepSpec warm_spec = s.spec;  // (b) is warm whatever the sweep file says
+  warm_spec.simulation.warm_start = true;
+  PointEvaluator ev(warm_spec, s.tmpl);
   std::optional<WarmStart> warm = memory->For(k);
   PointResult r = ev.EvaluateWarm(p, sim, warm ? &*warm : nullptr);
   r.index = k;
@@ -282,6 +286,61 @@ PointRecord EvaluatePoint(const PreparedSweep& s, const Point& p, Simulator& sim
   return rec;
 }
 
+// The reference part of a record (--ref-cache): ok, settle_at, the time per
+// period, the reference values and the boundary states, one line per point.
+void WriteReference(std::FILE* f, const PointRecord& r) {
+  std::fprintf(f, "%d %d %.17g %zu", r.ok ? 1 : 0, r.settle_at, r.ref_per_period, r.ref.size());
+  for (const EdgeValues& e : r.ref) {
+    std::fprintf(f, " %.17g %.17g %.17g %.17g", e.current, e.v_turn_on, e.t_transition, e.rail);
+  }
+  std::fprintf(f, " %zu %zu", r.boundary.size(), r.boundary.empty() ? 0 : r.boundary[0].size());
+  for (const auto& b : r.boundary)
+    for (double v : b) std::fprintf(f, " %.17g", v);
+  std::fprintf(f, "\n");
+}
+
+bool ReadReference(std::FILE* f, PointRecord* r) {
+  int ok = 0;
+  size_t n = 0, rows = 0, cols = 0;
+  if (std::fscanf(f, "%d %d %lf %zu", &ok, &r->settle_at, &r->ref_per_period, &n) != 4) {
+    return false;
+  }
+  r->ref.resize(n);
+  for (EdgeValues& e : r->ref) {
+    if (std::fscanf(f, "%lf %lf %lf %lf", &e.current, &e.v_turn_on, &e.t_transition, &e.rail) !=
+        4) {
+      return false;
+    }
+  }
+  if (std::fscanf(f, "%zu %zu", &rows, &cols) != 2) return false;
+  r->boundary.assign(rows, std::vector<double>(cols));
+  for (auto& b : r->boundary)
+    for (double& v : b)
+      if (std::fscanf(f, "%lf", &v) != 1) return false;
+  r->ok = ok == 1;
+  return true;
+}
+
+// The reference of `rec` from the cache file's next line, when it has one.
+PointRecord EvaluatePoint(const PreparedSweep& s, const Point& p, Simulator& sim, int ref,
+                          double tol, std::FILE* cached) {
+  if (!cached) return EvaluatePoint(s, p, sim, ref, tol);
+  PointRecord rec;
+  if (!ReadReference(cached, &rec)) return EvaluatePoint(s, p, sim, ref, tol);
+  PointEvaluator ev(s.spec, s.tmpl);
+  PointResult r = ev.Evaluate(p, sim);
+  rec.ok = rec.ok && r.status == PointStatus::kOk;
+  rec.a_wall = r.wall_s;
+  rec.a_periods = r.settle.periods;
+  rec.a = FromEdges(r.edges);
+  PointRunner run(s, p);
+  SimulationOutput out;
+  auto t0 = Clock::now();
+  run.Run(run.x0, 1, sim, &out);
+  rec.d_wall = Since(t0);  // (d)'s accuracy is not kept in the cache
+  return rec;
+}
+
 void Result(const char* key, double value) { std::printf("RESULT %s %.6g\n", key, value); }
 
 // Step-policy comparison (--steps): every point evaluated as zvsmap does
@@ -343,7 +402,7 @@ int main(int argc, char** argv) {
     std::fprintf(
         stderr,
         "usage: %s SWEEP [--ref REF] [--tol TOL] [--stages] [--steps B1,B2,... [--ref-step R]]\n"
-        "       [--reload R] [--first K] [--count N]\n",
+        "       [--reload R] [--first K] [--count N] [--ref-cache FILE]\n",
         argv[0]);
     return 2;
   }
@@ -354,6 +413,7 @@ int main(int argc, char** argv) {
   std::vector<double> steps;
   double ref_step = 0.5e-9;
   size_t first = 0, count = SIZE_MAX;
+  std::string ref_cache;
   for (int i = 2; i < argc; ++i) {
     if (!std::strcmp(argv[i], "--ref") && i + 1 < argc)
       ref = std::atoi(argv[++i]);
@@ -374,6 +434,8 @@ int main(int argc, char** argv) {
       first = std::strtoul(argv[++i], nullptr, 10);
     else if (!std::strcmp(argv[i], "--count") && i + 1 < argc)
       count = std::strtoul(argv[++i], nullptr, 10);
+    else if (!std::strcmp(argv[i], "--ref-cache") && i + 1 < argc)
+      ref_cache = argv[++i];
   }
   PreparedSweep s;
   std::vector<Diagnostic> errors;
@@ -396,9 +458,12 @@ int main(int argc, char** argv) {
   const int measured = std::max(2, s.spec.simulation.measure_periods);
   std::vector<PointRecord> recs;
   ChainMemory memory(ChainLinks(s.points, 0, InnermostIsDevice(s.spec)));
+  // --ref-cache FILE: the references from FILE when it exists (same sweep,
+  // same --ref: not checked), else computed and written to it.
+  std::FILE* cached = ref_cache.empty() ? nullptr : std::fopen(ref_cache.c_str(), "r");
   for (size_t k = 0; k < s.points.size(); ++k) {
     const Point& p = s.points[k];
-    recs.push_back(EvaluatePoint(s, p, sim, ref, tol));
+    recs.push_back(EvaluatePoint(s, p, sim, ref, tol, cached));
     EvaluateWarmStarted(s, p, k, sim, &memory, &recs.back());
     const PointRecord& r = recs.back();
     std::printf("point %zu %s: a %d periods %.3f s, b %d periods %.3f s, d %.3f s, settled at %d "
@@ -406,6 +471,14 @@ int main(int argc, char** argv) {
                 p.index, p.Describe().c_str(), r.a_periods, r.a_wall, r.b_periods, r.b_wall,
                 r.d_wall, r.settle_at, ref, r.ok && r.b_ok ? "ok" : "FAILED");
     std::fflush(stdout);
+  }
+  if (cached) {
+    std::fclose(cached);
+  } else if (!ref_cache.empty()) {
+    if (std::FILE* f = std::fopen(ref_cache.c_str(), "w")) {
+      for (const auto& r : recs) WriteReference(f, r);
+      std::fclose(f);
+    }
   }
   // (c): the period count that settles every point, then its accuracy.
   int slowest = 0;
