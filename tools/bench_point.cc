@@ -49,6 +49,8 @@
 #include <string>
 #include <vector>
 
+#include <fmt/format.h>
+
 #include "analysis/commutation.h"
 #include "analysis/edge_finder.h"
 #include "bench_reload.h"
@@ -87,27 +89,45 @@ PointValues FromEdges(const std::vector<EdgeMeasurement>& edges) {
   return v;
 }
 
-// Worst relative error of `got` against `ref` (see the file comment); NaN
-// when the method gave no values.
-double RelError(const PointValues& got, const PointValues& ref) {
-  if (got.size() != ref.size() || ref.empty()) return NAN;
+// Where a point's worst relative error sits: the edge (index into
+// PointValues), the quantity, and the two values compared.
+struct WorstError {
+  double rel = NAN;  // NaN when the method gave no values
+  size_t edge = 0;
+  const char* quantity = "";
+  double got = NAN, ref = NAN;
+  std::string Describe() const {
+    return std::isnan(rel) ? "no values"
+                           : std::string(quantity) + " of edge " + std::to_string(edge) + ": " +
+                                 fmt::format("{:.6g} against {:.6g}", got, ref);
+  }
+};
+
+// Worst relative error of `got` against `ref` (see the file comment).
+WorstError FindWorstError(const PointValues& got, const PointValues& ref) {
+  WorstError worst;
+  if (got.size() != ref.size() || ref.empty()) return worst;
   double swing = 0;
   for (size_t i = 0; i + 1 < ref.size(); i += 2) {
     swing = std::max(swing, std::fabs(ref[i + 1].current - ref[i].current));
   }
-  double worst = 0;
+  worst.rel = 0;
+  auto consider = [&](size_t i, const char* what, double a, double b, double scale) {
+    double rel = std::isnan(a) && std::isnan(b)   ? 0.0
+                 : std::isnan(a) || std::isnan(b) ? 1.0  // reached in one, not the other
+                                                  : std::fabs(a - b) / scale;
+    if (rel > worst.rel) worst = {rel, i, what, a, b};
+  };
   for (size_t i = 0; i < ref.size(); ++i) {
-    auto rel = [](double a, double b, double scale) {
-      if (std::isnan(a) && std::isnan(b)) return 0.0;
-      if (std::isnan(a) || std::isnan(b)) return 1.0;  // reached in one, not the other
-      return std::fabs(a - b) / scale;
-    };
-    worst = std::max(worst, rel(got[i].current, ref[i].current, std::max(swing, 1e-3)));
-    worst = std::max(worst, rel(got[i].v_turn_on, ref[i].v_turn_on, std::fabs(ref[i].rail)));
-    worst = std::max(worst, rel(got[i].t_transition, ref[i].t_transition,
-                                std::max(std::fabs(ref[i].t_transition), 1e-12)));
+    consider(i, "current", got[i].current, ref[i].current, std::max(swing, 1e-3));
+    consider(i, "v_turn_on", got[i].v_turn_on, ref[i].v_turn_on, std::fabs(ref[i].rail));
+    consider(i, "t_transition", got[i].t_transition, ref[i].t_transition,
+             std::max(std::fabs(ref[i].t_transition), 1e-12));
   }
   return worst;
+}
+double RelError(const PointValues& got, const PointValues& ref) {
+  return FindWorstError(got, ref).rel;
 }
 
 // One point's runs that start from a given slow state (the init params).
@@ -467,9 +487,11 @@ int main(int argc, char** argv) {
     EvaluateWarmStarted(s, p, k, sim, &memory, &recs.back());
     const PointRecord& r = recs.back();
     std::printf("point %zu %s: a %d periods %.3f s, b %d periods %.3f s, d %.3f s, settled at %d "
-                "of %d, %s\n",
+                "of %d, %s\n  a worst %.4f%% (%s)\n  b worst %.4f%% (%s)\n",
                 p.index, p.Describe().c_str(), r.a_periods, r.a_wall, r.b_periods, r.b_wall,
-                r.d_wall, r.settle_at, ref, r.ok && r.b_ok ? "ok" : "FAILED");
+                r.d_wall, r.settle_at, ref, r.ok && r.b_ok ? "ok" : "FAILED",
+                100 * FindWorstError(r.a, r.ref).rel, FindWorstError(r.a, r.ref).Describe().c_str(),
+                100 * FindWorstError(r.b, r.ref).rel, FindWorstError(r.b, r.ref).Describe().c_str());
     std::fflush(stdout);
   }
   if (cached) {
