@@ -74,6 +74,26 @@ rtj TJ 0 1G
 )";
 const char* kDiode = "* body diode\n.model dbody_inv d(is=1e-12 n=1 rs=5m tt=0 cjo=0)\n";
 
+// A CSV file's rows with every column whose name holds "wall" emptied.
+std::string WithoutTiming(const std::string& csv) {
+  std::istringstream in(csv);
+  std::string out, line;
+  std::getline(in, line);
+  std::vector<std::string> header;
+  std::stringstream h(line);
+  for (std::string f; std::getline(h, f, ',');) header.push_back(f);
+  while (std::getline(in, line)) {
+    std::stringstream fields(line);
+    size_t k = 0;
+    for (std::string f; std::getline(fields, f, ','); ++k) {
+      if (k < header.size() && header[k].find("wall") != std::string::npos) f.clear();
+      out += f + ",";
+    }
+    out += "\n";
+  }
+  return out;
+}
+
 class DeckE2eTest : public ::testing::Test {
  protected:
   void SetUp() override {
@@ -118,29 +138,19 @@ class DeckE2eTest : public ::testing::Test {
                        fault, log);
   }
 
+  // What the rerun left in dir_/out equals a fresh run of the same inputs
+  // into dir_/fresh, timing columns aside.
+  void ExpectOutEqualsFreshRun() {
+    std::string log;
+    ASSERT_EQ(RunZvsmapIn({"run", P("s.xml"), "-o", P("fresh"), "-j", "2"}, "", &log), 0) << log;
+    EXPECT_EQ(WithoutTiming(ReadText(P("out/edges.csv"))),
+              WithoutTiming(ReadText(P("fresh/edges.csv"))));
+  }
+
   fs::path dir_;
   std::string tmpl_, sweep_;
 };
 
-// A CSV file's rows with every column whose name holds "wall" emptied.
-std::string WithoutTiming(const std::string& csv) {
-  std::istringstream in(csv);
-  std::string out, line;
-  std::getline(in, line);
-  std::vector<std::string> header;
-  std::stringstream h(line);
-  for (std::string f; std::getline(h, f, ',');) header.push_back(f);
-  while (std::getline(in, line)) {
-    std::stringstream fields(line);
-    size_t k = 0;
-    for (std::string f; std::getline(fields, f, ','); ++k) {
-      if (k < header.size() && header[k].find("wall") != std::string::npos) f.clear();
-      out += f + ",";
-    }
-    out += "\n";
-  }
-  return out;
-}
 
 TEST_F(DeckE2eTest, RerunKeepsExactlyThePointsWhoseDeckIsUnchanged) {
   // Points: 0 = a at 0 A, 1 = a at 8 A, 2 = b at 0 A, 3 = b at 8 A.
@@ -189,11 +199,7 @@ TEST_F(DeckE2eTest, RerunKeepsExactlyThePointsWhoseDeckIsUnchanged) {
   EXPECT_NE(log.find("4 of 6 points kept from the stored run, 2 to run"), std::string::npos) << log;
 
   // What the rerun kept equals a fresh run of the same inputs.
-  std::string fresh_log;
-  ASSERT_EQ(RunZvsmapIn({"run", P("s.xml"), "-o", P("fresh"), "-j", "2"}, "", &fresh_log), 0)
-      << fresh_log;
-  EXPECT_EQ(WithoutTiming(ReadText(P("out/edges.csv"))),
-            WithoutTiming(ReadText(P("fresh/edges.csv"))));
+  ExpectOutEqualsFreshRun();
 }
 
 // With warm starts a point's result depends on its chain predecessor, which
@@ -209,11 +215,7 @@ TEST_F(DeckE2eTest, WarmStartedRerunRedoesPointsWhosePredecessorChanged) {
   WriteText(P("s.xml"), Replace(warm, "values=\"0 8\"", "values=\"0 4 8\""));
   ASSERT_EQ(RunKeeping({0, 3}, &log), 0) << log;
   EXPECT_NE(log.find("2 of 6 points kept from the stored run, 4 to run"), std::string::npos) << log;
-  std::string fresh_log;
-  ASSERT_EQ(RunZvsmapIn({"run", P("s.xml"), "-o", P("fresh"), "-j", "2"}, "", &fresh_log), 0)
-      << fresh_log;
-  EXPECT_EQ(WithoutTiming(ReadText(P("out/edges.csv"))),
-            WithoutTiming(ReadText(P("fresh/edges.csv"))));
+  ExpectOutEqualsFreshRun();
 }
 
 TEST_F(DeckE2eTest, EngineMessagesNameTheUsersFileAndLine) {
