@@ -96,7 +96,14 @@ class Shooter {
 
   // Scaled residual of the whole system.
   double SystemResidual(const std::vector<double>& f, const PeriodRun& run) const {
-    double r = Residual(f, run.ripple);
+    return SystemResidual(f, run, run.ripple);
+  }
+  // The same with the states scaled by `ripple` (another run's): a line
+  // search compares a trial with its start on one scale, as the ripple can
+  // shrink with the distance to the fixed point as fast as the residual does.
+  double SystemResidual(const std::vector<double>& f, const PeriodRun& run,
+                        const std::vector<double>& ripple) const {
+    double r = Residual(f, ripple);
     return control_ ? std::max(r, RegulationResidual(run.regulated_mean)) : r;
   }
 
@@ -272,6 +279,14 @@ using Matrix = std::vector<std::vector<double>>;
 // this change, DEVELOPERS.md "Warm starts").
 constexpr double kTrialWithin = 10;
 
+// A warm search stops at this fraction of the tolerance's ripple part (the
+// floors stay): its Jacobian is a neighbour's, secant-updated, so its last
+// step leaves the state closer to the tolerance than a cold search's
+// finite-difference Newton step, which converges quadratically. Near the ZVS
+// boundary the transition time follows the commutated current, which can be
+// a few percent of the ripple the tolerance is a fraction of.
+constexpr double kWarmTolerance = 0.1;
+
 // One step from `at` to at.z + lambda * dz: a Newton trial run, or (`trial`
 // false) a plain one-period run. False when the run failed or the budget is
 // spent.
@@ -305,7 +320,10 @@ void SecantUpdate(const Iterate& from, const Iterate& to, Matrix* jac) {
 // reused and Broyden-updated after each step; a reused Jacobian gets one try per
 // iteration, and when that step does not reduce the residual (or the matrix
 // is singular) it is rebuilt by finite differences at the same iterate.
-// `*jac` receives the Jacobian as the last accepted step left it.
+// A step is accepted when it reduces the residual with the states scaled by
+// the start's ripple (the trial's own ripple can shrink with the distance to
+// the fixed point as fast as the residual does, and a far-off start then sees
+// no progress). `*jac` receives the Jacobian as the last accepted step left it.
 bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowState>& unknowns,
             const ControlUnknown* control, const SteadyStateOptions& options,
             SteadyStateResult* r, Iterate* best, Matrix* jac) {
@@ -322,11 +340,13 @@ bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowS
   bool reused = !jac->empty();
   while (r->iterations < options.max_newton) {
     const bool small = at.residual <= options.tolerance;
-    // Cold, a small residual is settled (the step before came from a fresh
-    // Jacobian, exact to the finite differences). Warm, it is settled only
-    // when the Newton step the Jacobian predicts is small too (below).
-    if (small && (!warm || jac->empty())) break;
-    if (jac->empty() || !warm) {
+    // A small residual is settled only when the Newton step the Jacobian
+    // predicts is small too (below); with no Jacobian yet (the start state
+    // already settled) it is settled as it is. Cold, a Jacobian is built by
+    // finite differences at every iteration except this final check, which
+    // uses the secant-updated one of the step just taken.
+    if (small && jac->empty()) break;
+    if (jac->empty() || (!warm && !small)) {
       if (!Jacobian(shooter, at, unknowns, control, jac)) return false;
       ++r->jacobian_builds;
       reused = false;
@@ -354,7 +374,7 @@ bool Newton(Shooter& shooter, std::vector<double> start, const std::vector<SlowS
       Iterate next;
       const bool trial = !warm || at.residual <= kTrialWithin * options.tolerance;
       if (!TrialStep(shooter, at, dz, lambda, options, trial, &next)) return false;
-          if (next.residual < at.residual) {
+      if (shooter.SystemResidual(next.f, next.run, at.run.ripple) < at.residual) {
         SecantUpdate(at, next, jac);
         accepted = true;
         at = std::move(next);
@@ -484,11 +504,16 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
     z = opt.warm->unknowns;
     if (control) z.back() = std::min(control->max, std::max(control->min, z.back()));
     r.warm_started = true;
+    opt.tolerance *= kWarmTolerance;
   } else {
     opt.warm = nullptr;
   }
+  // `shooter` scales residuals to the search's own target (opt, tighter when
+  // warm), `plain` to the tolerance asked for, which decides what is settled.
   Shooter shooter(simulator, render, vectors, unknowns, states.size(), control, period_s, opt,
                   &r);
+  Shooter plain(simulator, render, vectors, unknowns, states.size(), control, period_s, options,
+                &r);
   r.state.assign(z.begin(), z.begin() + states.size());
   if (z.empty()) {
     // Nothing slow to settle: the circuit is periodic from the first period.
@@ -515,6 +540,7 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
     r.method = "shooting";
     Matrix jac;
     if (!Newton(shooter, z, unknowns, control, opt, &r, &best, &jac) && !r.ok) return r;
+    best.residual = best.f.empty() ? HUGE_VAL : plain.SystemResidual(best.f, best.run);
     if (best.residual <= options.tolerance) {
       r.final_run = std::move(best.run.output);
       r.jacobian = std::move(jac);
@@ -523,8 +549,8 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
   }
   r.method = "periods";
   z = best.z;
-  PeriodSettle p = control ? RegulateByPeriods(shooter, &z, best.run.ripple, *control, options, r)
-                           : SettleByPeriods(shooter, &z, best.run.ripple, options, r);
+  PeriodSettle p = control ? RegulateByPeriods(plain, &z, best.run.ripple, *control, options, r)
+                           : SettleByPeriods(plain, &z, best.run.ripple, options, r);
   if (!r.ok) return r;
   r.control_pinned = p.control_pinned;
   double residual = std::isfinite(p.residual) ? p.residual : best.residual;

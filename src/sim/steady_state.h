@@ -115,8 +115,11 @@ struct SteadyStateOptions {
   /// steps with the warm Jacobian, Broyden-updated after each step, and
   /// builds a finite-difference Jacobian only when a step with a reused
   /// Jacobian fails to reduce the residual (or it is singular).
-  /// A warm search with a Jacobian is settled only when the Newton step it
-  /// predicts is within the tolerance too (scaled like the residual).
+  /// A warm search stops at a tenth of the tolerance's ripple part (floors
+  /// unchanged; `kWarmTolerance` in steady_state.cc); the point is settled
+  /// when its residual is within `tolerance` itself. Cold or warm, a search
+  /// with a Jacobian is settled only when the Newton step it predicts is
+  /// within its target too (scaled like the residual).
   const WarmStart* warm = nullptr;
 };
 

@@ -59,10 +59,12 @@ std::string PointContentHash(const std::string& canonical_deck, const SweepSpec&
   // Probe runs add the window metrics (on by default; "off" stores none).
   h = Fnv1a64(kSeparator + (s.probe ? "probe=window" : "probe=off"), h);
   // A warm start settles from the chain predecessor's state (the same
-  // steady state within the tolerance, not the same digits). "chain2": a
-  // warm start's first run is always one period (before, an extrapolated
-  // start was tried as the measured run), so older warm results are redone.
-  h = Fnv1a64(kSeparator + (s.warm_start ? "warm=chain2" : "warm=off"), h);
+  // steady state within the tolerance, not the same digits). "chain3": a
+  // warm search stops at a tenth of the tolerance (before "chain2", at the
+  // tolerance; before that an extrapolated start was tried as the measured
+  // run). "off2": a cold search also checks its predicted step (before, a
+  // small residual alone settled it). Results of the older searches are redone.
+  h = Fnv1a64(kSeparator + (s.warm_start ? "warm=chain3" : "warm=off2"), h);
   // A regulated loop settles at another operating point.
   if (RunsRegulated(tmpl.regulation, s)) {
     h = Fnv1a64(kSeparator + "loop=regulated", h);

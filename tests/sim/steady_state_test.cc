@@ -401,6 +401,31 @@ TEST(SteadyStateTest, AWrongWarmJacobianIsRebuiltByFiniteDifferences) {
   EXPECT_NEAR(r.state[1], fixed[1], 1e-9);
 }
 
+// A warm start within the tolerance but not within a tenth of it still takes
+// a Newton step (a warm search aims at a tenth of the tolerance's ripple
+// part): with the exact Jacobian A - I the step lands on the fixed point
+// (Newton on an affine map, Aprille & Trick, Proc. IEEE 60(1), 1972).
+TEST(SteadyStateTest, AWarmStartJustWithinTheToleranceStillSteps) {
+  AffineMapSimulator sim;
+  sim.ripple[0] = sim.ripple[1] = 50;  // the ripple part, not the floor, decides
+  double fixed[2];
+  sim.FixedPoint(fixed);
+  WarmStart warm;
+  // F = (A - I) dx = (-0.01, -0.002): residual 0.01 / 50 = 2e-4, within the
+  // tolerance 1e-3 but not within 1e-4.
+  warm.unknowns = {fixed[0] + 0.02, fixed[1]};
+  warm.jacobian = {{sim.a[0][0] - 1, sim.a[0][1]}, {sim.a[1][0], sim.a[1][1] - 1}};
+  SteadyStateOptions options;
+  options.warm = &warm;
+  SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
+  ASSERT_TRUE(r.ok) << r.error;
+  ASSERT_TRUE(r.settled);
+  EXPECT_EQ(r.iterations, 1);
+  EXPECT_EQ(r.jacobian_builds, 0);
+  EXPECT_NEAR(r.state[0], fixed[0], 1e-9);
+  EXPECT_NEAR(r.state[1], fixed[1], 1e-9);
+}
+
 // A warm start whose size does not fit the unknowns is ignored (cold start).
 TEST(SteadyStateTest, AWarmStartOfTheWrongSizeStartsCold) {
   AffineMapSimulator sim;
