@@ -81,13 +81,11 @@ struct SimulationSettings {
   /// kDefault = regulated when the template declares a control, else open.
   enum class Loop { kDefault, kOpen, kRegulated };
   Loop loop = Loop::kDefault;
-  /// Warm starts (`warm-start="on"`, or "off", the default): a point settles
+  /// Warm starts (`warm-start="on"`, the default, or "off"): a point settles
   /// from its chain predecessor's settled state and Jacobian
-  /// (sweep/chain_layout.h) instead of the average model. Off by default: on
-  /// a slice of the bench's 20 x 20 grid a warm point's worst error against
-  /// a 1,000-period reference was 3.2 % against 1.5 % cold (DEVELOPERS.md
-  /// "Warm starts").
-  bool warm_start = false;
+  /// (sweep/chain_layout.h) instead of the average model. "off" starts every
+  /// point from the average model (DEVELOPERS.md "Warm starts" compares both).
+  bool warm_start = true;
   SourceLocation where;
 };
 

@@ -122,7 +122,7 @@ class DeckE2eTest : public ::testing::Test {
   <set param="L" value="1u"/>
   <axis device="leg.high leg.low" values="a b"/>
   <axis param="Iout" values="0 8"/>
-  <simulation settle-periods="10" reltol="1e-3"/>
+  <simulation warm-start="off" settle-periods="10" reltol="1e-3"/>
 </sweep>
 )";
     WriteText(P("s.xml"), sweep_);
@@ -193,7 +193,8 @@ TEST_F(DeckE2eTest, RerunKeepsExactlyThePointsWhoseDeckIsUnchanged) {
   EXPECT_NE(log.find("(0 kept from the stored run)"), std::string::npos) << log;
 
   // One more value on the fastest axis: every old point is kept at its new index
-  // (a0 a4 a8 b0 b4 b8: the old points are 0, 2, 3, 5).
+  // (a0 a4 a8 b0 b4 b8: the old points are 0, 2, 3, 5), as the fixture starts
+  // every point cold (warm-start="off"; the next test has warm starts).
   WriteText(P("s.xml"), Replace(sweep_, "values=\"0 8\"", "values=\"0 4 8\""));
   ASSERT_EQ(RunKeeping({0, 2, 3, 5}, &log), 0) << log;
   EXPECT_NE(log.find("4 of 6 points kept from the stored run, 2 to run"), std::string::npos) << log;
@@ -208,7 +209,7 @@ TEST_F(DeckE2eTest, RerunKeepsExactlyThePointsWhoseDeckIsUnchanged) {
 // points, now started from the new 4 A points, are redone, so the rerun
 // equals a fresh run digit for digit.
 TEST_F(DeckE2eTest, WarmStartedRerunRedoesPointsWhosePredecessorChanged) {
-  const std::string warm = Replace(sweep_, "<simulation ", "<simulation warm-start=\"on\" ");
+  const std::string warm = Replace(sweep_, "warm-start=\"off\"", "warm-start=\"on\"");
   WriteText(P("s.xml"), warm);
   std::string log;
   ASSERT_EQ(RunKeeping({}, &log), 0) << log;

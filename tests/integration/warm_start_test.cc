@@ -24,7 +24,7 @@ class WarmStartTest : public ::testing::TestWithParam<SimulationSettings::Loop> 
     ASSERT_TRUE(LoadTemplate(SourcePath("netlists/buck_halfbridge.cir"), &tmpl_, &error))
         << error.Format();
     spec_.simulation.loop = GetParam();
-    spec_.simulation.warm_start = true;  // off by default
+    spec_.simulation.warm_start = true;  // the default, stated for the reader
   }
   static Point At(size_t index, double iout) {
     return Point{index, {{"Vin", 48}, {"Vout", 12}, {"fsw", 500e3}, {"L", 1.5e-6}, {"Iout", iout}}};

@@ -74,9 +74,9 @@ TEST(PointContentHashTest, ProbeSettingCounts) {
 TEST(PointContentHashTest, WarmStartSettingCounts) {
   SweepSpec spec;
   Template t = Parse(kTemplate);
-  std::string off = PointContentHash("r1 a 0 1\n", spec, t);  // the default
-  spec.simulation.warm_start = true;
-  EXPECT_NE(off, PointContentHash("r1 a 0 1\n", spec, t));
+  std::string on = PointContentHash("r1 a 0 1\n", spec, t);  // the default
+  spec.simulation.warm_start = false;
+  EXPECT_NE(on, PointContentHash("r1 a 0 1\n", spec, t));
 }
 
 }  // namespace

@@ -470,7 +470,7 @@ TEST_F(SweepParserTest, ProbeIsOnUnlessSwitchedOff) {
 // Warm starts along chains: on by default, "off" starts every point from the
 // average model; any other value is refused at its line.
 TEST_F(SweepParserTest, WarmStartIsOnUnlessSwitchedOff) {
-  EXPECT_FALSE(Parse(Sweep("")).simulation.warm_start);  // off unless asked
+  EXPECT_TRUE(Parse(Sweep("")).simulation.warm_start);  // on unless turned off
   EXPECT_TRUE(Parse(Sweep("  <simulation warm-start=\"on\"/>\n")).simulation.warm_start);
   EXPECT_FALSE(Parse(Sweep("  <simulation warm-start=\"off\"/>\n")).simulation.warm_start);
   EXPECT_EQ(Error(Sweep("  <simulation warm-start=\"yes\"/>\n")),
