@@ -49,10 +49,7 @@ class Shooter {
   // (result filled) when a run fails or the period budget is spent.
   bool Run(std::vector<double>* z, int periods, PeriodRun* out, int nudge = -1,
            RunUse use = RunUse::kChunk) {
-    if (r_->periods + periods > opt_.max_periods) {
-      budget_spent_ = true;
-      return false;
-    }
+    if (r_->periods + periods > opt_.max_periods) return false;
     std::string error;
     SimulationOutput o =
         RunFromState(sim_, render_, vectors_, unknowns_, period_, periods, nudge, z, &error);
@@ -107,7 +104,6 @@ class Shooter {
     return control_ ? std::max(r, RegulationResidual(run.regulated_mean)) : r;
   }
 
-  bool budget_spent() const { return budget_spent_; }
   size_t states() const { return n_; }
 
  private:
@@ -142,7 +138,6 @@ class Shooter {
   double period_;
   const SteadyStateOptions& opt_;
   SteadyStateResult* r_;
-  bool budget_spent_ = false;
 };
 
 // Solves A x = b in place (Gaussian elimination, partial pivoting). False
