@@ -4,20 +4,31 @@
 #include <cctype>
 #include <vector>
 
+#include "core/text.h"
+
 namespace zvsmap {
 
 std::string Diagnostic::Format() const {
   std::string out;
   if (!where.file.empty()) {
-    out += where.file;
+    out += Printable(where.file);
     if (where.line > 0) out += ":" + std::to_string(where.line);
     out += ": ";
   }
-  out += message;
+  // The message quotes the user's values and the line is the user's text: a
+  // tab shows as a space, other control bytes (a terminal's escape sequences
+  // among them) escaped, and the caret counts them as shown.
+  auto shown = [](std::string text) {
+    std::replace(text.begin(), text.end(), '\t', ' ');
+    return Printable(text);
+  };
+  out += shown(message);
   if (!source_line.empty()) {
-    out += "\n  " + source_line;
+    const std::string line = shown(source_line);
+    out += "\n  " + line;
     if (where.column > 0) {
-      out += "\n  " + std::string(static_cast<size_t>(where.column - 1), ' ') + "^";
+      const size_t before = std::min(source_line.size(), static_cast<size_t>(where.column - 1));
+      out += "\n  " + std::string(shown(source_line.substr(0, before)).size(), ' ') + "^";
     }
   }
   return out;

@@ -14,4 +14,8 @@ bool SameName(const std::string& a, const std::string& b);
 /// `s` without leading and trailing blanks (space, tab, CR, LF).
 std::string Trim(const std::string& s);
 
+/// `text` with every control character shown as an escape ("\\n", "\\x1b"),
+/// for messages that quote a value or a line holding one.
+std::string Printable(const std::string& text);
+
 }  // namespace zvsmap

@@ -329,24 +329,6 @@ bool CheckParamListToken(const std::string& text, std::string* reason) {
   }
 }
 
-std::string Printable(const std::string& text) {
-  std::string out;
-  for (unsigned char c : text) {
-    if (c == '\n') {
-      out += "\\n";
-    } else if (c == '\r') {
-      out += "\\r";
-    } else if (c < 0x20 || c == 0x7f) {
-      char buf[8];
-      std::snprintf(buf, sizeof buf, "\\x%02x", c);
-      out += buf;
-    } else {
-      out += static_cast<char>(c);
-    }
-  }
-  return out;
-}
-
 bool CheckFileName(const std::string& path, std::string* reason) {
   for (unsigned char c : path) {
     if (c < 0x20 || c == 0x7f) {

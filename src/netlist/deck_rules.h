@@ -61,10 +61,6 @@ bool IsNameToken(const std::string& text);
 /// Describes byte `c` for messages: "line break (LF)", "control character 0x07".
 std::string DescribeChar(unsigned char c);
 
-/// `text` with every control character shown as an escape ("\\n", "\\x1b"),
-/// for messages that quote a value holding one.
-std::string Printable(const std::string& text);
-
 /// Checks a file name that zvsmap reads for a deck: false with `reason` when
 /// it holds a control character (a line break in a name is refused, never
 /// passed on).

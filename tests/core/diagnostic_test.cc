@@ -30,6 +30,14 @@ TEST_F(DiagnosticTest, CaretUnderTheColumn) {
   EXPECT_EQ(d.Format(), "a.xml:3: bad\n  <set param=\"x\"/>\n      ^");
 }
 
+// A message and its quoted line hold the user's bytes: an escape sequence must not reach
+// the terminal (ECMA-48 control functions start with ESC, 0x1b); a tab shows
+// as a space. The caret stays under the column as shown.
+TEST_F(DiagnosticTest, QuotedLineShowsControlBytesEscaped) {
+  Diagnostic d{{"a.xml", 3, 9}, "bad 'x\x1b[2J'", "<a\x1b[2J\tb=\"x\"/>"};
+  EXPECT_EQ(d.Format(), "a.xml:3: bad 'x\\x1b[2J'\n  <a\\x1b[2J b=\"x\"/>\n             ^");
+}
+
 TEST_F(DiagnosticTest, ErrorCarriesTheDiagnostic) {
   Diagnostic d{{"f", 1, 0}, "boom", {}};
   Error e(d);
