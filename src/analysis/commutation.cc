@@ -276,7 +276,10 @@ EdgeMeasurement MeasureEdge(const CellSpec& cell, const Waveforms& waves, const 
   if (std::isfinite(params.coss_f) && t.size() > 1) {
     std::vector<double> rel(t.size());
     for (size_t i = 0; i < t.size(); ++i) rel[i] = sw[i] - lo[i];
-    double vo = Trapezoid(Slice(t, rel, t.front(), t.back())) / (t.back() - t.front());
+    const double from = params.period_s > 0 && t.back() - params.period_s >= t.front()
+                            ? t.back() - params.period_s
+                            : t.front();
+    double vo = Trapezoid(Slice(t, rel, from, t.back())) / (t.back() - from);
     double qoss = params.coss_f * rail;
     e_need = up ? qoss * (rail - 2 * vo) : qoss * (2 * vo - rail);
     if (std::isfinite(e_avail) && qoss * rail > 0) margin = (e_avail - e_need) / (qoss * rail);

@@ -20,6 +20,9 @@ struct EdgeParams {
   double low_vth_v = std::numeric_limits<double>::quiet_NaN();     ///< low switch gate threshold
   double inductance_h = std::numeric_limits<double>::quiet_NaN();  ///< commutating inductance
   double coss_f = std::numeric_limits<double>::quiet_NaN();        ///< linear Coss of each switch
+  /// The switching period: the node's average (for the energy needed) is
+  /// taken over the data's last whole period; NaN: over all of the data.
+  double period_s = std::numeric_limits<double>::quiet_NaN();
 };
 
 /// The parameters `cell` names, looked up in a point's resolved values.

@@ -73,7 +73,7 @@ void AddExplainCommand(CLI::App& app, int* exit_code) {
       *exit_code = kExitPointsFailed;
       return;
     }
-    std::printf("settled by %s in %d periods (%.2f s)\n\n", SettleMethodName(result.settle.method),
+    std::printf("settled by %s in %.3g periods (%.2f s)\n\n", SettleMethodName(result.settle.method),
                 result.settle.periods, result.wall_s);
     for (const std::string& line : ExplainComparison(ev.hand, result.edges)) {
       std::printf("%s\n", line.c_str());

@@ -1,13 +1,17 @@
 #include "netlist/template.h"
 
 #include <cctype>
+#include <cmath>
 #include <filesystem>
 #include <fstream>
 #include <map>
+#include <optional>
 #include <sstream>
 
+#include "core/spice_number.h"
 #include "core/text.h"
 #include "netlist/include_closure.h"
+#include "sweep/sweep_spec.h"
 
 namespace zvsmap {
 
@@ -79,6 +83,31 @@ const char* const kCellKeys[] = {"node",     "rail_high",  "rail_low",  "current
                                  "low_vth",  "inductance", "coss"};
 const char* const kRequiredCellKeys[] = {"node",    "rail_high", "rail_low",
                                          "current", "high_cmd",  "low_cmd"};
+
+// `*@ measure lead=P` (P in periods, kMinMeasureLead to kMaxMeasureLead).
+bool ParseMeasureLead(const std::vector<std::string>& words, const std::string& path, int line,
+                      Template* out, Diagnostic* error) {
+  const std::string usage = "expected '*@ measure lead=<periods>', e.g. '*@ measure lead=0.25'";
+  if (words.size() != 2 || Lower(words[1]).rfind("lead=", 0) != 0) {
+    *error = At(path, line, usage);
+    return false;
+  }
+  if (!std::isnan(out->measure_lead)) {
+    *error = At(path, line, "more than one '*@ measure'");
+    return false;
+  }
+  std::optional<double> lead = ParseSpiceNumber(words[1].substr(5));
+  if (!lead || !(*lead >= kMinMeasureLead && *lead <= kMaxMeasureLead)) {
+    *error = At(path, line,
+                "'*@ measure lead=' must be a number of periods from " +
+                    FormatNumber(kMinMeasureLead) + " to " + FormatNumber(kMaxMeasureLead) +
+                    ", got '" + words[1].substr(5) + "'");
+    return false;
+  }
+  out->measure_lead = *lead;
+  out->measure_where = {path, line, 0};
+  return true;
+}
 
 bool ParseCell(const std::vector<std::string>& words, const std::string& path, int line,
                CellSpec* cell, Diagnostic* error) {
@@ -280,6 +309,8 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
         out->model_bindings.emplace_back(Lower(words[k].substr(0, eq)),
                                          Lower(words[k].substr(eq + 1)));
       }
+    } else if (kind == "measure") {
+      if (!ParseMeasureLead(words, path, a.line, out, error)) return false;
     } else if (IsRegulationAnnotation(kind)) {
       if (!ParseRegulationAnnotation(words, {path, a.line, 0}, &out->regulation, &out->power,
                                      error)) {
@@ -288,7 +319,7 @@ bool ParseTemplateText(const std::string& text, const std::string& path, Templat
     } else {
       *error = At(path, a.line,
                   "unknown annotation '*@ " + words[0] +
-                      "' (known: period, cell, state, model, control, regulate, power)");
+                      "' (known: period, cell, state, model, control, regulate, power, measure)");
       return false;
     }
   }
@@ -337,6 +368,12 @@ bool LoadTemplate(const std::string& path, Template* out, Diagnostic* error) {
     return false;
   }
   return ParseTemplateText(text, path, out, error);
+}
+
+double MeasureLead(const SweepSpec& spec, const Template& tmpl) {
+  if (!std::isnan(spec.simulation.measure_lead)) return spec.simulation.measure_lead;
+  if (!spec.devices.empty() || std::isnan(tmpl.measure_lead)) return kDefaultMeasureLead;
+  return tmpl.measure_lead;
 }
 
 }  // namespace zvsmap

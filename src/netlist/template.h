@@ -2,12 +2,14 @@
 // (switching period, commutation cells, slow states). See README "Templates".
 #pragma once
 
+#include <limits>
 #include <string>
 #include <vector>
 
 #include "core/diagnostic.h"
 #include "netlist/deck.h"
 #include "netlist/regulation_annotations.h"
+#include "sweep/sweep_spec.h"
 
 namespace zvsmap {
 
@@ -69,12 +71,24 @@ struct Template {
   RegulationSpec regulation;
   /// `*@ power`: the ports of the operating-point record (optional).
   PowerSpec power;
+  /// `*@ measure lead=P`: the lead (in periods) a measured run may take
+  /// before its measured period, because the template sets every state at
+  /// t = 0 that settling does not (switch capacitances, gate drives); NaN
+  /// when not declared.
+  double measure_lead = std::numeric_limits<double>::quiet_NaN();
+  SourceLocation measure_where;
 
   /// The names of all declared parameters, in file order.
   std::vector<std::string> ParamNames() const;
   /// The declaration of `name` (case-insensitive), or nullptr.
   const ParamDecl* FindParam(const std::string& name) const;
 };
+
+/// The lead of the sweep's measured runs: its `measure-lead` when set, else
+/// the template's `*@ measure lead=` unless the sweep brings its own switch
+/// models (<device>: the template's promise covers its own switches only),
+/// else kDefaultMeasureLead.
+double MeasureLead(const SweepSpec& spec, const Template& tmpl);
 
 /// Parses template text; `path` names it in messages and anchors its relative
 /// includes, which are read, checked and inlined into `body`. Fails on a

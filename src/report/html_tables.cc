@@ -36,6 +36,13 @@ std::string Num(double v, const std::string& unit) {
 
 std::string Td(const std::string& text) { return "<td>" + HtmlEscape(text) + "</td>"; }
 
+// A count of simulated periods, which a measured run's tail makes fractional.
+std::string PeriodCount(double periods) {
+  char buf[32];
+  std::snprintf(buf, sizeof buf, "%.3g", periods);
+  return buf;
+}
+
 // The opening of a table: its header row in <thead>, then <tbody>; close
 // with kTableEnd. `sortable`: the page's script sorts it by a clicked header.
 std::string TableStart(const std::string& cls, std::initializer_list<const char*> names,
@@ -385,7 +392,7 @@ std::string HtmlFailedPoints(const ReportBasis& input) {
     ++n;
     std::string settle =
         r.settle.method == SettleMethod::kNotAttempted ? "-" : SettleMethodName(r.settle.method);
-    if (r.settle.periods > 0) settle += ", " + std::to_string(r.settle.periods) + " periods";
+    if (r.settle.periods > 0) settle += ", " + PeriodCount(r.settle.periods) + " periods";
     rows += "<tr>" + PointCells(input, grid, i) + Td(PointStatusName(r.status)) + Td(r.reason) +
             Td(settle) + Td(r.solver_aid.empty() ? "-" : r.solver_aid) + "</tr>\n";
   }
@@ -459,7 +466,8 @@ std::string HtmlSettings(const ReportInput& input) {
        Td(s.settle_method + ", tolerance " + FormatQuantity(s.settle_tolerance, "") + ", at most " +
           std::to_string(s.max_periods) + " periods") +
        Td("<simulation>") + "</tr>\n";
-  h += "<tr>" + Td("measured periods") + Td(std::to_string(s.measure_periods)) +
+  h += "<tr>" + Td("lead before the measured period") +
+       Td(PeriodCount(MeasureLead(spec, input.tmpl)) + " periods") +
        Td("<simulation>") + "</tr>\n";
   h += "<tr>" + Td("max-step") + (s.max_step_s > 0 ? Num(s.max_step_s, "s") : Td("derived")) +
        Td("<simulation>") + "</tr>\n";

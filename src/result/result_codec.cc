@@ -6,7 +6,7 @@
 namespace zvsmap {
 namespace {
 
-constexpr uint8_t kFormat = 5;
+constexpr uint8_t kFormat = 6;
 // Upper bound for any count read back; a corrupt length must not make the
 // decoder reserve gigabytes.
 constexpr uint32_t kMaxCount = 1u << 24;
@@ -161,7 +161,7 @@ std::string EncodeResult(const PointResult& r) {
   w.Str(r.log);
   w.U8(static_cast<uint8_t>(r.settle.method));
   w.I32(r.settle.iterations);
-  w.I32(r.settle.periods);
+  w.F64(r.settle.periods);
   w.F64(r.settle.residual);
   w.U32(static_cast<uint32_t>(r.settle.initial_state.size()));
   for (const auto& state : r.settle.initial_state) {
@@ -195,13 +195,14 @@ bool DecodeResult(const std::string& data, PointResult* out) {
   Reader r(data);
   uint8_t format = 0, status = 0, method = 0;
   uint64_t index = 0;
-  int32_t iterations = 0, periods = 0;
+  int32_t iterations = 0;
+  double periods = 0;
   uint32_t edge_count = 0, state_count = 0;
   if (!r.U8(&format) || format != kFormat || !r.U64(&index) || !r.U8(&status) ||
       status > static_cast<uint8_t>(PointStatus::kNotRun) || !r.Str(&out->reason) ||
       !r.Str(&out->log) || !r.U8(&method) ||
       method > static_cast<uint8_t>(SettleMethod::kPeriods) || !r.I32(&iterations) ||
-      !r.I32(&periods) || !r.F64(&out->settle.residual) || !r.U32(&state_count) ||
+      !r.F64(&periods) || !r.F64(&out->settle.residual) || !r.U32(&state_count) ||
       state_count > kMaxCount) {
     return false;
   }

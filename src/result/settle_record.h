@@ -35,7 +35,9 @@ struct SettledState {
 struct SettleRecord {
   SettleMethod method = SettleMethod::kNotAttempted;
   int iterations = 0;  ///< Newton iterations (shooting) or 0
-  int periods = 0;     ///< switching periods simulated in all
+  /// Switching periods simulated in all: every run's length, a measured run's
+  /// tail beyond its last whole period included (run/point_evaluator.h).
+  double periods = 0;
   double residual = std::numeric_limits<double>::quiet_NaN();  ///< final relative residual
   /// The settled start-of-period state, in template order, then (regulated
   /// loop) the control parameter's settled value: the parameters that

@@ -36,7 +36,10 @@ bool PointEvaluator::ProbeEdge(const Point& point, const std::vector<ParamValue>
   }
   // The edge's place in the period (the measured run starts at a period start).
   const double t_off = e.t_off_s - std::floor(e.t_off_s / period) * period;
-  const double bound = std::min(e.t_end_s - e.t_off_s, period) - kBoundMarginPeriods * period;
+  // The incoming command's own turn-off: from the measured run, or from the
+  // period before when the run ends first (the run's last edge).
+  const double until = std::isnan(e.conduction_s) ? e.t_end_s : e.t_on_s + e.conduction_s;
+  const double bound = std::min(until - e.t_off_s, period) - kBoundMarginPeriods * period;
   if (!(bound > 0)) {
     *why = "the incoming command's interval is too short to probe";
     return false;

@@ -428,11 +428,12 @@ void CheckSteps(const PointContext& c, const PointEvaluator& evaluator) {
       c.Add(period_at, what, against, c.tmpl.period_expression);
     }
   } else {
-    double steps = (sim.max_periods + sim.measure_periods) * per_period;
+    const double measured = MeasuredRunFor(c.spec, c.tmpl, c.resolved, c.period).periods;
+    double steps = (sim.max_periods + measured) * per_period;
     if (steps <= kMaxStepsPerPoint) return;
     std::string what = "a point may take at most " + Count(kMaxStepsPerPoint) + " steps";
     std::string detail = "(max-periods " + std::to_string(sim.max_periods) + " + " +
-                         std::to_string(sim.measure_periods) + " measured periods) x " +
+                         FormatNumber(measured) + " periods of the measured run) x " +
                          Count(per_period) + " steps per period = " + Count(steps);
     if (sim.where.line > 0) {
       in_sweep("max-periods", what, detail);

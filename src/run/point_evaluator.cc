@@ -41,11 +41,44 @@ bool PointEvaluator::RenderFor(const Point& point, const Variables& resolved,
                             deck, why);
 }
 
+namespace {
+
+// The declared dead times of the template's cells at a resolved point (those
+// that resolve to a positive value).
+std::vector<double> DeadTimes(const Template& tmpl, const Variables& resolved) {
+  std::vector<double> out;
+  for (const auto& cell : tmpl.cells) {
+    for (const auto* name : {&cell.high_dead, &cell.low_dead}) {
+      auto it = resolved.find(*name);
+      if (!name->empty() && it != resolved.end() && it->second > 0) out.push_back(it->second);
+    }
+  }
+  return out;
+}
+
+}  // namespace
+
+MeasuredRun MeasuredRunFor(const SweepSpec& spec, const Template& tmpl,
+                           const Variables& resolved, double period_s) {
+  const double lead = MeasureLead(spec, tmpl);
+  // An edge whose turn-off command falls just before the measured period's
+  // end has its turn-on a dead time later, and FindEdgesFrom wants the turn-on
+  // kEdgeGuardPeriods before the data's end; without a declared dead time,
+  // a twentieth of the period (common practice for a dead time's upper end).
+  double dead = period_s / 20;
+  std::vector<double> declared = DeadTimes(tmpl, resolved);
+  if (!declared.empty()) dead = *std::max_element(declared.begin(), declared.end());
+  MeasuredRun run;
+  run.lead = lead;
+  run.periods = run.lead + 1 + std::min(dead / period_s, 1.0) + 2 * kEdgeGuardPeriods;
+  return run;
+}
+
 TranSettings PointEvaluator::TranFor(const Variables& resolved, double period_s) const {
   const SimulationSettings& sim = spec_.simulation;
   TranSettings tran;
-  int measured = std::max(2, sim.measure_periods);
-  tran.tstop_s = (sim.settle_periods + measured) * period_s;
+  const MeasuredRun measured = MeasuredRunFor(spec_, tmpl_, resolved, period_s);
+  tran.tstop_s = (sim.settle_periods + measured.periods + kPeriodOverrun) * period_s;
   tran.tstart_s = sim.settle_periods * period_s;
   tran.reltol = sim.reltol;
   if (sim.max_step_s > 0) {
@@ -54,14 +87,7 @@ TranSettings PointEvaluator::TranFor(const Variables& resolved, double period_s)
     // Resolve the dead-time transition: a twentieth of the shortest declared
     // dead time, and never coarser than 1/500 of the period (common practice).
     double step = period_s / 500;
-    for (const auto& cell : tmpl_.cells) {
-      for (const auto* name : {&cell.high_dead, &cell.low_dead}) {
-        auto it = resolved.find(*name);
-        if (!name->empty() && it != resolved.end() && it->second > 0) {
-          step = std::min(step, it->second / 20);
-        }
-      }
-    }
+    for (double dead : DeadTimes(tmpl_, resolved)) step = std::min(step, dead / 20);
     tran.max_step_s = step;
   }
   return tran;
@@ -73,7 +99,7 @@ namespace {
 // every sample stored (the settling runs read each period's ripple). The run
 // goes 1 % of a period past the last boundary: ngspice failed ("Timestep too
 // small") when tstop fell exactly on a command edge.
-TranSettings TranForPeriods(TranSettings tran, double period_s, int periods) {
+TranSettings TranForPeriods(TranSettings tran, double period_s, double periods) {
   tran.tstop_s = (periods + kPeriodOverrun) * period_s;
   tran.tstart_s = 0;
   return tran;
@@ -171,9 +197,6 @@ LoopSetting LoopOf(const Template& tmpl, const Variables& params, const SteadySt
   s.set_point = params.at(r.target);
   return s;
 }
-
-// The periods of the measured run: measure_periods, at least 2.
-int MeasuredPeriods(const SimulationSettings& sim) { return std::max(2, sim.measure_periods); }
 
 // The steady-state search as the sweep's <simulation> sets it.
 SteadyStateOptions SettleOptions(const SimulationSettings& sim) {
@@ -283,7 +306,7 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
   // The last deck handed to the engine: its messages about netlist lines are
   // mapped back to the user's file:line through it.
   Deck last_deck;
-  auto render = [&](const std::vector<double>& x, int periods, std::string* netlist,
+  auto render = [&](const std::vector<double>& x, double periods, std::string* netlist,
                     std::string* why) {
     Variables r;
     Diagnostic d;
@@ -298,8 +321,9 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     *netlist = last_deck.Text();
     return true;
   };
+  const MeasuredRun measured = MeasuredRunFor(spec_, tmpl_, ev->params, period);
   SteadyStateOptions options = SettleOptions(sim);
-  if (simulator.SettlesAsItMeasures()) options.trial_periods = MeasuredPeriods(sim);
+  if (simulator.SettlesAsItMeasures()) options.trial_periods = measured.periods;
   if (sim.warm_start) options.warm = ev->warm_start;
   ControlUnknown control;
   const bool regulated = RegulatedControl(tmpl_, sim, ev->params, &control);
@@ -332,39 +356,40 @@ PointResult PointEvaluator::EvaluateOnce(const Point& point, AidedSimulator& sim
     return finish();
   }
 
-  // The measured run: measure_periods (>= 2) from the settled state; the
-  // Newton run that verified the settled state is that run when it settled so.
-  const int measured = MeasuredPeriods(sim);
+  // The measured run (MeasuredRunFor) from the settled state; the Newton run
+  // that verified the settled state is that run when it settled so.
   std::string why;
   std::vector<double> x = SettledUnknowns(ss);
   SimulationOutput out = std::move(ss.final_run);
   if (!out.ok) {
     simulator.SetMeasuring(true);
     out = RunFromState(simulator, render, vectors,
-                       SearchUnknowns(states, regulated ? &control : nullptr), period, measured, -1,
-                       &x, &why);
-    result.settle.periods += measured;
+                       SearchUnknowns(states, regulated ? &control : nullptr), period,
+                       measured.periods, -1, &x, &why);
+    result.settle.periods += measured.periods;
   }
   if (!out.ok) {
     result.reason = why.empty() ? MapEngineLines(out.error, last_deck) : why;
     result.log = MapEngineLog(out.log, last_deck);
     return finish();
   }
-  if (!MeasureCells(out, ev, &result)) return finish();
-  result.operating = MeasureOperatingPoint(tmpl_, out.waves, (measured - 1) * period,
-                                           measured * period, LoopOf(tmpl_, ev->params, ss));
+  const double from = measured.lead * period;
+  if (!MeasureCells(out, from, ev, &result)) return finish();
+  result.operating = MeasureOperatingPoint(tmpl_, out.waves, from, from + period,
+                                           LoopOf(tmpl_, ev->params, ss));
   if (sim.probe) ProbeEdges(point, WithUnknowns(point.values, x, tmpl_), simulator, *ev, &result);
   result.status = PointStatus::kOk;
   if (keep_waveforms) ev->settled = std::move(out.waves);
   return finish();
 }
 
-bool PointEvaluator::MeasureCells(const SimulationOutput& out, PointEvaluation* ev,
-                                  PointResult* result) const {
+bool PointEvaluator::MeasureCells(const SimulationOutput& out, double from_s,
+                                  PointEvaluation* ev, PointResult* result) const {
   for (size_t c = 0; c < tmpl_.cells.size(); ++c) {
     const CellSpec& cell = tmpl_.cells[c];
-    std::vector<EdgeTiming> edges = FindEdges(cell, out.waves, 0.02 * ev->period_s);
+    std::vector<EdgeTiming> edges = FindEdgesFrom(cell, out.waves, ev->period_s, from_s);
     EdgeParams edge_params = EdgeParamsFor(cell, ev->params);
+    edge_params.period_s = ev->period_s;
     for (EdgeKind kind : kEdgeKinds) {
       const char* name = EdgeKindName(kind);
       auto it = std::find_if(edges.begin(), edges.end(),
@@ -373,7 +398,7 @@ bool PointEvaluator::MeasureCells(const SimulationOutput& out, PointEvaluation* 
         result->edges.clear();
         ev->edges.clear();
         result->reason = "edge '" + cell.name + "." + name +
-                         "' not found in the measured periods (check the command signals)";
+                         "' not found in the measured period (check the command signals)";
         result->log = out.log;
         return false;
       }

@@ -46,6 +46,20 @@ struct PointEvaluation {
   const WarmStart* warm_start = nullptr;
 };
 
+/// The run a point is measured in, from its settled state: `lead` periods,
+/// the measured period (its edges are those whose turn-off command falls in
+/// [lead, lead + 1) periods), then the longest declared dead time and two
+/// edge guards, so that the period's last edge is complete.
+struct MeasuredRun {
+  double periods = 0;  ///< the run's length in periods (kPeriodOverrun added on top)
+  double lead = 0;     ///< the measured period starts at lead periods
+};
+
+/// The measured run of a resolved point with period `period_s` (its lead:
+/// MeasureLead, netlist/template.h).
+MeasuredRun MeasuredRunFor(const SweepSpec& spec, const Template& tmpl,
+                           const Variables& resolved, double period_s);
+
 /// Evaluates points of one sweep. Holds no simulator: the caller passes the
 /// one its process owns (a worker's ngspice, or a fake in tests).
 class PointEvaluator {
@@ -101,9 +115,11 @@ class PointEvaluator {
   /// ladder in Evaluate calls it once per rung).
   PointResult EvaluateOnce(const Point& point, AidedSimulator& simulator, PointEvaluation* ev,
                            bool keep_waveforms) const;
-  /// Finds and measures every cell's edges in the measured run `out` and adds
-  /// the hand calculation; false (with the reason in `result`) on a missing edge.
-  bool MeasureCells(const SimulationOutput& out, PointEvaluation* ev, PointResult* result) const;
+  /// Finds and measures every cell's edges in the measured run `out`, each in
+  /// its first occurrence from `from_s` on, and adds the hand calculation;
+  /// false (with the reason in `result`) on a missing edge.
+  bool MeasureCells(const SimulationOutput& out, double from_s, PointEvaluation* ev,
+                    PointResult* result) const;
   /// The probe runs of every measured edge (run/edge_probe.cc), from the
   /// settled start-of-period state `values_at_x` (the point's values with the
   /// slow states' init parameters set): fills each edge's window metrics and

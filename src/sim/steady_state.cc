@@ -12,6 +12,9 @@ double SlowStateFloor(const std::string& vector) {
 
 namespace {
 
+// The whole periods in a run of `periods` (a measured run's tail is not one).
+int WholePeriods(double periods) { return static_cast<int>(std::floor(periods + 1e-9)); }
+
 // One run of `periods` periods from `z` (the states, then the control when
 // there is one): the states at every period boundary (k = 1..periods), each
 // state's ripple over the last period and the regulated vector's average over
@@ -47,7 +50,7 @@ class Shooter {
 
   // Simulates `periods` from *z (possibly nudged, see RunFromState). False
   // (result filled) when a run fails or the period budget is spent.
-  bool Run(std::vector<double>* z, int periods, PeriodRun* out, int nudge = -1,
+  bool Run(std::vector<double>* z, double periods, PeriodRun* out, int nudge = -1,
            RunUse use = RunUse::kChunk) {
     if (r_->periods + periods > opt_.max_periods) return false;
     std::string error;
@@ -60,7 +63,8 @@ class Shooter {
       r_->log = o.log;
       return false;
     }
-    Read(o.waves, periods, use == RunUse::kNewtonTrial ? 0 : periods - 1, out);
+    const int whole = WholePeriods(periods);
+    Read(o.waves, whole, use == RunUse::kNewtonTrial ? 0 : whole - 1, out);
     if (use == RunUse::kNewtonTrial) out->output = std::move(o);
     return true;
   }
@@ -289,7 +293,7 @@ bool TrialStep(Shooter& shooter, const Iterate& at, const std::vector<double>& d
                const SteadyStateOptions& options, bool trial, Iterate* next) {
   next->z = at.z;
   for (size_t i = 0; i < dz.size(); ++i) next->z[i] += lambda * dz[i];
-  const bool ok = trial ? shooter.Run(&next->z, std::max(1, options.trial_periods), &next->run,
+  const bool ok = trial ? shooter.Run(&next->z, std::max(1.0, options.trial_periods), &next->run,
                                       -1, RunUse::kNewtonTrial)
                         : shooter.Run(&next->z, 1, &next->run);
   if (!ok) return false;
@@ -413,7 +417,8 @@ PeriodSettle SettleByPeriods(Shooter& shooter, std::vector<double>* z, std::vect
   const size_t window = static_cast<size_t>(std::max(2, options.window));
   const size_t keep = 2 * window;  // boundaries kept for the tail estimate
   while (true) {
-    int chunk = std::min(std::max(1, options.chunk_periods), options.max_periods - r.periods);
+    int chunk = std::min(std::max(1, options.chunk_periods),
+                         WholePeriods(options.max_periods - r.periods));
     PeriodRun run;
     if (chunk <= 0 || !shooter.Run(z, chunk, &run)) break;
     history.back() = states_of(*z);  // the state actually used (a retry may nudge it)
@@ -556,7 +561,7 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
 
 SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render,
                               const std::vector<std::string>& vectors,
-                              const std::vector<SlowState>& states, double period_s, int periods,
+                              const std::vector<SlowState>& states, double period_s, double periods,
                               int nudge, std::vector<double>* x, std::string* render_error) {
   const std::vector<double> base = *x;
   SimulationOutput o;

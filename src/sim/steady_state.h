@@ -31,10 +31,11 @@ double SlowStateFloor(const std::string& vector);
 constexpr double kPeriodOverrun = 0.01;
 
 /// Renders a netlist that starts every slow state at `x` (same order as the
-/// states) and simulates `periods` whole periods from t = 0 (tstop =
+/// states) and simulates `periods` periods from t = 0 (whole ones, or a
+/// measured run's length with its tail; tstop =
 /// (periods + kPeriodOverrun) times the period, every sample stored, `uic`). Returns false with a
 /// one-line `error` when it cannot.
-using PeriodRenderer = std::function<bool(const std::vector<double>& x, int periods,
+using PeriodRenderer = std::function<bool(const std::vector<double>& x, double periods,
                                           std::string* netlist, std::string* error)>;
 
 /// Renders from `*x` and simulates `periods` periods. ngspice occasionally
@@ -46,7 +47,7 @@ using PeriodRenderer = std::function<bool(const std::vector<double>& x, int peri
 /// is set (and the result not ok) when rendering failed.
 SimulationOutput RunFromState(Simulator& simulator, const PeriodRenderer& render,
                               const std::vector<std::string>& vectors,
-                              const std::vector<SlowState>& states, double period_s, int periods,
+                              const std::vector<SlowState>& states, double period_s, double periods,
                               int nudge, std::vector<double>* x, std::string* render_error);
 
 /// A control parameter that the solve adjusts, as one more unknown, so that
@@ -103,12 +104,13 @@ struct SteadyStateOptions {
   /// decay of the cycle-to-cycle change over the last 2 * `window`
   /// boundaries (geometric series), is within the tolerance too.
   int window = 20;
-  /// Length of each Newton trial run (the run at a Newton step), in periods.
-  /// The step's residual is read from its first period; when the step
+  /// Length of each Newton trial run (the run at a Newton step), in periods
+  /// (at least 1; a fraction beyond the whole periods is a measured run's
+  /// tail). The step's residual is read from its first period; when the step
   /// settles, the whole run is handed back as SteadyStateResult::final_run,
-  /// so a caller that measures `trial_periods` periods from the settled state
+  /// so a caller that measures a run of `trial_periods` from the settled state
   /// has its measured run already (the run that verifies is the one measured).
-  int trial_periods = 1;
+  double trial_periods = 1;
   /// A warm start (null: start from each unknown's `initial`, the average
   /// model). Newton then starts from the warm unknowns with a one-period run
   /// (a trial run there paid off too seldom: DEVELOPERS.md "Warm starts"),
@@ -132,7 +134,7 @@ struct SteadyStateResult {
   std::string log;     ///< log of the failing run, if any
   std::string method;  ///< "shooting" or "periods" (the method that finished)
   int iterations = 0;  ///< Newton iterations taken
-  int periods = 0;     ///< periods simulated in all
+  double periods = 0;  ///< periods simulated in all (a measured run's tail counted)
   /// Shooting: max over states of |x(T) - x(0)| / max(ripple, floor /
   /// tolerance). Period by period: the larger of the window's spread and the
   /// extrapolated remaining change, in the same units. The point is settled

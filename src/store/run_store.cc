@@ -17,7 +17,7 @@ constexpr const char* kSchema =
     "CREATE TABLE IF NOT EXISTS points(idx INTEGER PRIMARY KEY, params TEXT NOT NULL,"
     " content_hash TEXT NOT NULL, status TEXT NOT NULL, reason TEXT NOT NULL,"
     " settle_method TEXT NOT NULL, settle_iterations INTEGER NOT NULL,"
-    " settle_periods INTEGER NOT NULL, settle_residual, settle_state TEXT NOT NULL, wall_s,"
+    " settle_periods REAL NOT NULL, settle_residual, settle_state TEXT NOT NULL, wall_s,"
     " log TEXT NOT NULL, solver_aid TEXT NOT NULL DEFAULT '');"
     "CREATE TABLE IF NOT EXISTS edges(point INTEGER NOT NULL, ord INTEGER NOT NULL,"
     " cell TEXT NOT NULL, edge TEXT NOT NULL, zvs TEXT NOT NULL, criterion TEXT NOT NULL,"
@@ -316,7 +316,7 @@ bool RunStore::SavePoint(const Point& point, const std::string& content_hash, co
     ins.Text(5, r.reason);
     ins.Text(6, SettleMethodName(r.settle.method));
     ins.Int(7, r.settle.iterations);
-    ins.Int(8, r.settle.periods);
+    ins.Double(8, r.settle.periods);
     ins.Double(9, r.settle.residual);
     ins.Text(10, "");  // stores before the settled_states table kept the state here as text
     ins.Double(11, r.wall_s);
@@ -471,7 +471,7 @@ bool RunStore::LoadResults(std::map<size_t, PointResult>* out, std::string* erro
     r.reason = points.ColText(2);
     r.settle.method = MethodFromName(points.ColText(3));
     r.settle.iterations = static_cast<int>(points.ColInt(4));
-    r.settle.periods = static_cast<int>(points.ColInt(5));
+    r.settle.periods = points.ColDouble(5);
     r.settle.residual = points.ColDouble(6);
     r.settle.initial_state = ParsePairs(points.ColText(7));
     r.wall_s = points.ColDouble(8);

@@ -469,7 +469,13 @@ bool Parser::ParseDerive(pugi::xml_node node) {
 }
 
 bool Parser::ParseSimulation(pugi::xml_node node) {
-  if (!Once(node) || !CheckShape(node, {"settle-periods", "measure-periods", "max-step", "reltol",
+  if (node.attribute("measure-periods")) {
+    return FailAttr(node, "measure-periods",
+                    "'measure-periods' was replaced by 'measure-lead': the periods simulated "
+                    "before the measured one (measure-periods=\"N\" measured after a lead of "
+                    "N - 1 periods)");
+  }
+  if (!Once(node) || !CheckShape(node, {"settle-periods", "measure-lead", "max-step", "reltol",
                                         "timeout", "settle", "settle-tolerance", "max-newton",
                                         "max-periods", "solver-aid", "probe", "loop",
                                         "warm-start"})) {
@@ -487,14 +493,13 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
     }
     s.settle_periods = static_cast<int>(n);
   }
-  if (node.attribute("measure-periods")) {
-    if (!WholeNumber(node, "measure-periods", 2, &n) ||
-        !AtMost(node, "measure-periods", static_cast<double>(n), 100,
-                "each edge is taken from its latest complete occurrence; more periods add "
-                "memory, not accuracy")) {
-      return false;
-    }
-    s.measure_periods = static_cast<int>(n);
+  if (node.attribute("measure-lead") &&
+      (!Positive(node, "measure-lead", &s.measure_lead) ||
+       !AtLeast(node, "measure-lead", s.measure_lead, kMinMeasureLead,
+                "periods; the states not set at t = 0 need time to settle before a measurement") ||
+       !AtMost(node, "measure-lead", s.measure_lead, kMaxMeasureLead,
+               "periods; a longer lead adds run time, not accuracy"))) {
+    return false;
   }
   if (node.attribute("max-step") &&
       (!Positive(node, "max-step", &s.max_step_s) ||

@@ -3,6 +3,7 @@
 #pragma once
 
 #include <cstddef>
+#include <limits>
 #include <string>
 #include <vector>
 
@@ -51,11 +52,26 @@ struct DerivedValue {
   SourceLocation where;
 };
 
+/// The lead of a measured run when neither the sweep nor the template sets
+/// one: a whole period, in which the states not set at t = 0 settle
+/// (DEVELOPERS.md "Measured run").
+constexpr double kDefaultMeasureLead = 1;
+
+/// The range of a measured run's lead, in periods.
+constexpr double kMinMeasureLead = 0.05, kMaxMeasureLead = 100;
+
 /// How each point is simulated.
 struct SimulationSettings {
   int settle_periods = 60;  ///< periods simulated before the measured one (brute force)
-  int measure_periods =
-      2;  ///< periods kept at the end; each edge is taken from its latest complete occurrence
+  /// The measured run from the settled state: a lead, then the measured
+  /// period, then the last edge's dead time and a guard; each edge is taken
+  /// from its first occurrence that starts in the measured period. The lead
+  /// lets the states that are not set at t = 0 (switch capacitances of vendor
+  /// models, gate drives, rectifier junctions) settle before anything is
+  /// measured (DEVELOPERS.md "Measured run"). `measure-lead`; NaN = not set:
+  /// the template's `*@ measure lead=`, else kDefaultMeasureLead
+  /// (Template::MeasureLead).
+  double measure_lead = std::numeric_limits<double>::quiet_NaN();
   double max_step_s = 0;  ///< .tran step bound; 0 = derived from period and dead time
   double reltol = 1e-4;   ///< ngspice RELTOL
   double timeout_s = 0;   ///< per-point wall-clock limit; 0 = derived

@@ -87,6 +87,61 @@ TEST_F(CommutationTest, RisingEdgeIsFullZvsWithTenToNinetyTime) {
   EXPECT_NEAR(m.Get("t_dead_s"), 50e-9, 0.2e-9);
 }
 
+// A measured run's edges: the first occurrence whose turn-off command falls in
+// the measured period, not the latest in the data.
+TEST_F(CommutationTest, FindsTheFirstEdgesOfTheMeasuredPeriod) {
+  auto edges = FindEdgesFrom(cell_, waves_, 1e-6, 0.3e-6);
+  ASSERT_EQ(edges.size(), 2u);
+  EXPECT_EQ(edges[0].edge, "high_on");
+  EXPECT_NEAR(edges[0].t_off_s, 1.1e-6, 1e-10);  // the one at 0.1 us is before the period
+  EXPECT_NEAR(edges[0].t_on_s, 1.15e-6, 1e-10);
+  EXPECT_EQ(edges[1].edge, "low_on");
+  EXPECT_NEAR(edges[1].t_off_s, 0.5e-6, 1e-10);  // not the later one at 1.5 us
+  EXPECT_NEAR(edges[1].t_on_s, 0.55e-6, 1e-10);
+  EXPECT_NEAR(edges[1].t_end_s, 1.1e-6, 1e-10);
+  EXPECT_NEAR(edges[1].conduction_s, 0.55e-6, 1e-10);
+}
+
+// The run's last edge ends with the data: the incoming switch's conduction
+// then comes from the period before (the commands repeat every period), and an
+// edge whose turn-on is within the guard of the end is not complete.
+TEST_F(CommutationTest, TheLastEdgeOfARunTakesItsConductionFromThePeriodBefore) {
+  Waveforms run = waves_.Window(0, 1.3e-6);
+  auto edges = FindEdgesFrom(cell_, run, 1e-6, 1.0e-6);
+  ASSERT_EQ(edges.size(), 1u);  // low_on's turn-off at 1.5 us lies beyond the data
+  EXPECT_EQ(edges[0].edge, "high_on");
+  EXPECT_NEAR(edges[0].t_on_s, 1.15e-6, 1e-10);
+  EXPECT_NEAR(edges[0].t_end_s, run.time().back(), 1e-12);
+  EXPECT_NEAR(edges[0].conduction_s, 0.35e-6, 1e-10);  // 0.15 us to 0.5 us
+  // Turn-on at 1.15 us against an end at 1.16 us: inside the 0.02 us guard.
+  EXPECT_TRUE(FindEdgesFrom(cell_, waves_.Window(0, 1.16e-6), 1e-6, 1.0e-6).empty());
+}
+
+// The node's average in the energy needed (netlists/references.md sec. 2) is a
+// period average: over the data's last whole period it is the same for a run
+// of 1.3 periods as for two whole periods.
+TEST_F(CommutationTest, TheEnergyNeededAveragesTheNodeOverOnePeriod) {
+  EdgeParams params;
+  params.coss_f = 1e-9;
+  params.inductance_h = 1e-6;
+  params.period_s = 1e-6;
+  ZvsCriterion crit;
+  auto whole = FindEdgesFrom(cell_, waves_, 1e-6, 1.0e-6);
+  Waveforms run = waves_.Window(0, 1.3e-6);
+  auto part = FindEdgesFrom(cell_, run, 1e-6, 1.0e-6);
+  ASSERT_FALSE(whole.empty());
+  ASSERT_FALSE(part.empty());
+  double need_whole = MeasureEdge(cell_, waves_, whole[0], crit, params).Get("e_needed_j");
+  double need_part = MeasureEdge(cell_, run, part[0], crit, params).Get("e_needed_j");
+  // The waveform repeats every period, so any whole period has the same
+  // average; equal to a part in 1e-3 (the 0.1 ns grid against the window).
+  ASSERT_TRUE(std::isfinite(need_whole));
+  EXPECT_NEAR(need_part, need_whole, 1e-3 * std::fabs(need_whole));
+  params.period_s = NAN;  // all of the 1.3-period data: biased toward the high plateau
+  double biased = MeasureEdge(cell_, run, part[0], crit, params).Get("e_needed_j");
+  EXPECT_GT(std::fabs(biased - need_whole), 0.05 * std::fabs(need_whole));
+}
+
 // The exported list of metric names is exactly what MeasureEdge gives, in
 // order (the up-front name checks rely on it; README "Metrics" lists them).
 TEST_F(CommutationTest, MetricNamesAreTheExportedList) {

@@ -93,9 +93,18 @@ TEST_F(ChecksE2eTest, RequirementNamingAnUnknownMetricIsRefused) {
                    "you mean 'v_turn_on_v'? metrics: rail_v, ");
 }
 
-TEST_F(ChecksE2eTest, TooFewMeasuredPeriodsAreRefused) {
-  ExpectRefusedRun("  <simulation measure-periods=\"1\"/>\n",
-                   "s.xml:4: 'measure-periods' must be a whole number of at least 2, got '1'");
+TEST_F(ChecksE2eTest, TooShortALeadIsRefused) {
+  ExpectRefusedRun("  <simulation measure-lead=\"0.01\"/>\n",
+                   "s.xml:4: 'measure-lead' must be at least 0.05, got '0.01' (periods; the "
+                   "states not set at t = 0 need time to settle before a measurement)");
+}
+
+// A sweep file written for the older attribute learns what replaced it.
+TEST_F(ChecksE2eTest, TheReplacedMeasuredPeriodCountIsExplained) {
+  ExpectRefusedRun("  <simulation measure-periods=\"2\"/>\n",
+                   "s.xml:4: 'measure-periods' was replaced by 'measure-lead': the periods "
+                   "simulated before the measured one (measure-periods=\"N\" measured after a "
+                   "lead of N - 1 periods)");
 }
 
 TEST_F(ChecksE2eTest, UnitLettersAreAWarningNotAnError) {

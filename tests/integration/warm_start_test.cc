@@ -70,8 +70,9 @@ TEST_P(WarmStartTest, AWarmStartedPointSettlesWhereAColdStartDoes) {
 }
 
 // A point started from its own settled state is settled at once: its
-// one-period first run is the check, then the measured run, measure_periods
-// long, and the same edges as the cold run.
+// one-period first run is the check, then the measured run (its lead, the
+// measured period and the tail, run/point_evaluator.h MeasuredRun), and the
+// same edges as the cold run.
 TEST_P(WarmStartTest, AStartAtTheSettledStateTakesNoNewtonStep) {
   PointEvaluator evaluator(spec_, tmpl_);
   Point point = At(0, 4);
@@ -82,7 +83,12 @@ TEST_P(WarmStartTest, AStartAtTheSettledStateTakesNoNewtonStep) {
   PointResult again = evaluator.EvaluateWarm(point, SharedNgspice(), &warm);
   ASSERT_EQ(again.status, PointStatus::kOk) << again.reason;
   EXPECT_EQ(again.settle.iterations, 0);
-  EXPECT_EQ(again.settle.periods, 1 + std::max(2, spec_.simulation.measure_periods));
+  Variables resolved;
+  Diagnostic error;
+  ASSERT_TRUE(ResolveParams(tmpl_, point.values, &resolved, &error)) << error.Format();
+  const double period = 1 / resolved.at("fsw");  // the template's '*@ period 1/fsw'
+  EXPECT_DOUBLE_EQ(again.settle.periods,
+                   1 + MeasuredRunFor(spec_, tmpl_, resolved, period).periods);
   ExpectSameEdges(again, cold);
 }
 

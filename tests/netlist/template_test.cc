@@ -85,9 +85,38 @@ TEST_F(TemplateTest, MalformedParamAndUnknownAnnotation) {
   ASSERT_FALSE(Parse("t\n*@ perod 1\n"));
   EXPECT_EQ(error_.Format(),
             "t.cir:2: unknown annotation '*@ perod' (known: period, cell, state, model, control, "
-            "regulate, power)");
+            "regulate, power, measure)");
   ASSERT_FALSE(Parse("t\n.param a=1\n.param A=2\n"));
   EXPECT_EQ(error_.Format(), "t.cir:3: .param 'a' declared twice");
+}
+
+// `*@ measure lead=`: the template's lead, used unless the sweep sets its own
+// or brings its own switch models; bad values are refused at their line.
+TEST_F(TemplateTest, MeasureLeadAnnotation) {
+  auto with = [](const std::string& lines) {  // inserted as line 10, before V1
+    std::string text = kGood;
+    return text.insert(text.find("V1 in"), lines);
+  };
+  ASSERT_TRUE(Parse(with("*@ measure lead=0.25\n"))) << error_.Format();
+  EXPECT_DOUBLE_EQ(tmpl_.measure_lead, 0.25);
+  SweepSpec spec;
+  EXPECT_DOUBLE_EQ(MeasureLead(spec, tmpl_), 0.25);
+  spec.devices.push_back(DeviceSpec());
+  EXPECT_DOUBLE_EQ(MeasureLead(spec, tmpl_), kDefaultMeasureLead);
+  spec.simulation.measure_lead = 2;
+  EXPECT_DOUBLE_EQ(MeasureLead(spec, tmpl_), 2);
+  ASSERT_TRUE(Parse(kGood));
+  EXPECT_DOUBLE_EQ(MeasureLead(SweepSpec(), tmpl_), kDefaultMeasureLead);
+
+  ASSERT_FALSE(Parse(with("*@ measure lead=0.01\n")));
+  EXPECT_EQ(error_.Format(),
+            "t.cir:10: '*@ measure lead=' must be a number of periods from 0.05 to 100, got "
+            "'0.01'");
+  ASSERT_FALSE(Parse(with("*@ measure 0.25\n")));
+  EXPECT_EQ(error_.Format(),
+            "t.cir:10: expected '*@ measure lead=<periods>', e.g. '*@ measure lead=0.25'");
+  ASSERT_FALSE(Parse(with("*@ measure lead=1\n*@ measure lead=2\n")));
+  EXPECT_EQ(error_.Format(), "t.cir:11: more than one '*@ measure'");
 }
 
 TEST_F(TemplateTest, MissingFile) {

@@ -37,8 +37,10 @@ TEST(PointEvaluationTest, CarriesTheEdgesItMeasuredAndTheHandCalculation) {
   ASSERT_EQ(ev.edges.size(), ev.result.edges.size());
   ASSERT_EQ(ev.edges.size(), 2u);
 
-  // Looked for again in the kept waveforms, the edges sit at the same instants.
-  std::vector<EdgeTiming> again = FindEdges(tmpl.cells[0], ev.settled, 0.02 * ev.period_s);
+  // Looked for again in the kept waveforms (the measured run, its measured
+  // period after the lead), the edges sit at the same instants.
+  std::vector<EdgeTiming> again = FindEdgesFrom(tmpl.cells[0], ev.settled, ev.period_s,
+                                                MeasureLead(spec, tmpl) * ev.period_s);
   ASSERT_EQ(again.size(), 2u);
   for (size_t k = 0; k < ev.edges.size(); ++k) {
     const EdgeTiming& t = ev.edges[k].timing;

@@ -213,13 +213,16 @@ TEST_F(PointChecksTest, MaxStepTooCoarseForThePeriod) {
 }
 
 TEST_F(PointChecksTest, TooManyStepsForOnePoint) {
-  // 2000 steps per period (max-step T/2000) x (1e6 + 2) periods > 1e9.
+  // 2000 steps per period (max-step T/2000) x (1e6 + 2.06) periods > 1e9: the
+  // measured run is the default lead of one period, the measured period, the
+  // 40 ns dead time (0.02 of the 2 us period) and two edge guards of 0.02.
   Load("  <simulation max-step=\"1n\" max-periods=\"1000000\"/>\n");
   std::vector<Diagnostic> problems = Check();
   ASSERT_EQ(problems.size(), 1u);
   EXPECT_EQ(problems[0].message,
             "a point may take at most 1e+09 steps at 1 of 1 points: point 0: (max-periods "
-            "1000000 + 2 measured periods) x 2000 steps per period = 2e+09");
+            "1000000 + 2.06 periods of the measured run) x 2000 steps per period = "
+            "2e+09");
   EXPECT_EQ(problems[0].where.column, 27);  // max-periods
 }
 

@@ -54,7 +54,7 @@ TEST_F(SweepParserTest, FullExample) {
     <axis param="Cout" values="100u, 47u"/>
   </lockstep>
   <derive param="D" expr="Vout/Vin"/>
-  <simulation settle-periods="60" measure-periods="2" max-step="2n" reltol="1e-4" timeout="120"/>
+  <simulation settle-periods="60" measure-lead="0.5" max-step="2n" reltol="1e-4" timeout="120"/>
   <zvs residual="10%"/>
   <limits max-points="20000"/>
 </sweep>
@@ -82,7 +82,7 @@ TEST_F(SweepParserTest, FullExample) {
   ASSERT_EQ(spec.derived.size(), 1u);
   EXPECT_EQ(spec.derived[0].expression, "Vout/Vin");
   EXPECT_EQ(spec.simulation.settle_periods, 60);
-  EXPECT_EQ(spec.simulation.measure_periods, 2);
+  EXPECT_DOUBLE_EQ(spec.simulation.measure_lead, 0.5);
   EXPECT_DOUBLE_EQ(spec.simulation.max_step_s, 2e-9);
   EXPECT_DOUBLE_EQ(spec.simulation.reltol, 1e-4);
   EXPECT_DOUBLE_EQ(spec.simulation.timeout_s, 120);
@@ -97,7 +97,8 @@ TEST_F(SweepParserTest, Defaults) {
   SweepSpec spec = Parse(Sweep(""));
   SimulationSettings defaults;
   EXPECT_EQ(spec.simulation.settle_periods, defaults.settle_periods);
-  EXPECT_EQ(spec.simulation.measure_periods, defaults.measure_periods);
+  EXPECT_TRUE(std::isnan(spec.simulation.measure_lead));  // the template's, or a period
+  EXPECT_TRUE(std::isnan(defaults.measure_lead));
   EXPECT_EQ(spec.simulation.max_step_s, defaults.max_step_s);
   EXPECT_EQ(spec.simulation.reltol, defaults.reltol);
   EXPECT_EQ(spec.simulation.timeout_s, defaults.timeout_s);
@@ -395,8 +396,8 @@ TEST_F(SweepParserTest, MissingTemplate) {
 TEST_F(SweepParserTest, BadSettings) {
   EXPECT_EQ(Error(Sweep("  <simulation settle-periods=\"2.5\"/>\n")),
             "3: 'settle-periods' must be a whole number of at least 1, got '2.5'");
-  EXPECT_EQ(Error(Sweep("  <simulation measure-periods=\"0\"/>\n")),
-            "3: 'measure-periods' must be a whole number of at least 2, got '0'");
+  EXPECT_EQ(Error(Sweep("  <simulation measure-lead=\"0\"/>\n")),
+            "3: 'measure-lead' must be positive, got '0'");
   EXPECT_EQ(Error(Sweep("  <simulation reltol=\"-1e-3\"/>\n")),
             "3: 'reltol' must be positive, got '-1e-3'");
   EXPECT_EQ(Error(Sweep("  <zvs residual=\"0%\"/>\n")), "3: 'residual' must be positive, got '0%'");
@@ -405,13 +406,14 @@ TEST_F(SweepParserTest, BadSettings) {
 }
 
 // The ranges README "Ranges of the settings" gives each setting (common
-// practice, no source; the measured-period minimum is README's own rule).
+// practice, no source; the lead's minimum is README's own rule).
 TEST_F(SweepParserTest, SettingsOutsideTheirRange) {
-  EXPECT_EQ(Error(Sweep("  <simulation measure-periods=\"1\"/>\n")),
-            "3: 'measure-periods' must be a whole number of at least 2, got '1'");
-  EXPECT_EQ(Error(Sweep("  <simulation measure-periods=\"101\"/>\n")),
-            "3: 'measure-periods' must be at most 100, got '101' (each edge is taken from its "
-            "latest complete occurrence; more periods add memory, not accuracy)");
+  EXPECT_EQ(Error(Sweep("  <simulation measure-lead=\"0.01\"/>\n")),
+            "3: 'measure-lead' must be at least 0.05, got '0.01' (periods; the states not set "
+            "at t = 0 need time to settle before a measurement)");
+  EXPECT_EQ(Error(Sweep("  <simulation measure-lead=\"101\"/>\n")),
+            "3: 'measure-lead' must be at most 100, got '101' (periods; a longer lead adds run "
+            "time, not accuracy)");
   EXPECT_EQ(Error(Sweep("  <simulation settle-periods=\"0\"/>\n")),
             "3: 'settle-periods' must be a whole number of at least 1, got '0'");
   EXPECT_EQ(Error(Sweep("  <simulation settle-periods=\"2000\"/>\n")),
@@ -450,11 +452,11 @@ TEST_F(SweepParserTest, SettingsOutsideTheirRange) {
   EXPECT_EQ(Error(Sweep("  <zvs residual=\"-2\"/>\n")), "3: 'residual' must be positive, got '-2'");
   // The edges of each range are inside it.
   SweepSpec spec = Parse(Sweep(
-      "  <simulation settle-periods=\"1\" measure-periods=\"100\" reltol=\"0.1\" timeout=\"1\"\n"
+      "  <simulation settle-periods=\"1\" measure-lead=\"100\" reltol=\"0.1\" timeout=\"1\"\n"
       "              max-newton=\"0\" max-periods=\"1\" settle-tolerance=\"0.1\" max-step=\"1\"/>\n"
       "  <zvs residual=\"49.9%\"/>\n"));
   EXPECT_EQ(spec.simulation.settle_periods, 1);
-  EXPECT_EQ(spec.simulation.measure_periods, 100);
+  EXPECT_DOUBLE_EQ(spec.simulation.measure_lead, 100);
   EXPECT_DOUBLE_EQ(spec.zvs.value, 0.499);
 }
 
