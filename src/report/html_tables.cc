@@ -466,9 +466,12 @@ std::string HtmlSettings(const ReportInput& input) {
        Td(s.settle_method + ", tolerance " + FormatQuantity(s.settle_tolerance, "") + ", at most " +
           std::to_string(s.max_periods) + " periods") +
        Td("<simulation>") + "</tr>\n";
-  h += "<tr>" + Td("lead before the measured period") +
-       Td(PeriodCount(MeasureLead(spec, input.tmpl)) + " periods") +
-       Td("<simulation>") + "</tr>\n";
+  const double lead = MeasureLead(spec, input.tmpl);
+  const char* lead_from = !std::isnan(s.measure_lead)               ? "<simulation>"
+                          : lead == input.tmpl.measure_lead ? "template *@ measure"
+                                                                    : "default";
+  h += "<tr>" + Td("lead before the measured period") + Td(PeriodCount(lead) + " periods") +
+       Td(lead_from) + "</tr>\n";
   h += "<tr>" + Td("max-step") + (s.max_step_s > 0 ? Num(s.max_step_s, "s") : Td("derived")) +
        Td("<simulation>") + "</tr>\n";
   h += "<tr>" + Td("reltol") + Num(s.reltol, "") + Td("<simulation>") + "</tr>\n";
