@@ -463,7 +463,7 @@ std::string HtmlSettings(const ReportInput& input) {
   }
   const SimulationSettings& s = spec.simulation;
   h += "<tr>" + Td("settling") +
-       Td(s.settle_method + ", tolerance " + FormatQuantity(s.settle_tolerance, "") + ", at most " +
+       Td(std::string(SettleMethodName(s.settle_method)) + ", tolerance " + FormatQuantity(s.settle_tolerance, "") + ", at most " +
           std::to_string(s.max_periods) + " periods") +
        Td("<simulation>") + "</tr>\n";
   const double lead = MeasureLead(spec, input.tmpl);

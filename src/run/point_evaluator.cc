@@ -145,7 +145,7 @@ std::vector<ParamValue> WithUnknowns(std::vector<ParamValue> values, const std::
 // settled state and (regulated) the control, as the parameters that
 // reproduce the settled period.
 void RecordSettling(const SteadyStateResult& ss, const Template& tmpl, SettleRecord* out) {
-  SettleMethodFromName(ss.method, &out->method);
+  out->method = ss.method;
   out->iterations = ss.iterations;
   out->periods = ss.periods;
   out->residual = ss.residual;
@@ -201,7 +201,7 @@ LoopSetting LoopOf(const Template& tmpl, const Variables& params, const SteadySt
 // The steady-state search as the sweep's <simulation> sets it.
 SteadyStateOptions SettleOptions(const SimulationSettings& sim) {
   SteadyStateOptions options;
-  options.method = sim.settle_method == "periods" ? SteadyStateOptions::Method::kPeriods
+  options.method = sim.settle_method == SettleMethod::kPeriods ? SteadyStateOptions::Method::kPeriods
                                                   : SteadyStateOptions::Method::kShooting;
   options.tolerance = sim.settle_tolerance;
   options.max_newton = sim.max_newton;

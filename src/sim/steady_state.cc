@@ -518,7 +518,7 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
   if (z.empty()) {
     // Nothing slow to settle: the circuit is periodic from the first period.
     r.settled = true;
-    r.method = "none";
+    r.method = SettleMethod::kNone;
     return r;
   }
   auto finish = [&](const std::vector<double>& at, const std::vector<double>& ripple,
@@ -537,7 +537,7 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
   best.z = z;
   best.run.ripple.assign(states.size(), 0);
   if (options.method == SteadyStateOptions::Method::kShooting) {
-    r.method = "shooting";
+    r.method = SettleMethod::kShooting;
     Matrix jac;
     if (!Newton(shooter, z, unknowns, control, opt, &r, &best, &jac) && !r.ok) return r;
     best.residual = best.f.empty() ? HUGE_VAL : plain.SystemResidual(best.f, best.run);
@@ -547,7 +547,7 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
       return finish(best.z, best.run.ripple, best.residual, best.run.regulated_mean, true);
     }
   }
-  r.method = "periods";
+  r.method = SettleMethod::kPeriods;
   z = best.z;
   PeriodSettle p = control ? RegulateByPeriods(plain, &z, best.run.ripple, *control, options, r)
                            : SettleByPeriods(plain, &z, best.run.ripple, options, r);

@@ -9,6 +9,7 @@
 #include <string>
 #include <vector>
 
+#include "result/settle_record.h"
 #include "sim/simulator.h"
 
 namespace zvsmap {
@@ -132,7 +133,7 @@ struct SteadyStateResult {
   bool settled = false;
   std::string error;
   std::string log;     ///< log of the failing run, if any
-  std::string method;  ///< "shooting" or "periods" (the method that finished)
+  SettleMethod method = SettleMethod::kNotAttempted;  ///< the method that finished
   int iterations = 0;  ///< Newton iterations taken
   double periods = 0;  ///< periods simulated in all (a measured run's tail counted)
   /// Shooting: max over states of |x(T) - x(0)| / max(ripple, floor /

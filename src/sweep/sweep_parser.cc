@@ -521,10 +521,10 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
     return false;
   }
   if (node.attribute("settle")) {
-    s.settle_method = node.attribute("settle").value();
-    if (s.settle_method != "shooting" && s.settle_method != "periods") {
-      return FailAttr(node, "settle",
-                      "'settle' must be 'shooting' or 'periods', got '" + s.settle_method + "'");
+    const std::string text = node.attribute("settle").value();
+    if (!SettleMethodFromName(text, &s.settle_method) ||
+        (s.settle_method != SettleMethod::kShooting && s.settle_method != SettleMethod::kPeriods)) {
+      return FailAttr(node, "settle", "'settle' must be 'shooting' or 'periods', got '" + text + "'");
     }
   }
   if (node.attribute("settle-tolerance") &&

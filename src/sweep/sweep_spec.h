@@ -8,6 +8,7 @@
 #include <vector>
 
 #include "core/diagnostic.h"
+#include "result/settle_record.h"
 #include "sweep/device_spec.h"
 #include "sweep/prediction_spec.h"
 #include "sweep/refine_spec.h"
@@ -75,12 +76,12 @@ struct SimulationSettings {
   double max_step_s = 0;  ///< .tran step bound; 0 = derived from period and dead time
   double reltol = 1e-4;   ///< ngspice RELTOL
   double timeout_s = 0;   ///< per-point wall-clock limit; 0 = derived
-  /// Settling: "shooting" (Newton on the template's slow states, falling back
-  /// to period by period) or "periods" (period by period only, in runs of
+  /// Settling: kShooting (Newton on the template's slow states, falling back
+  /// to period by period) or kPeriods (period by period only, in runs of
   /// settle_periods, stopping when the last 20 period-boundary states lie
   /// within the tolerance of the latest one and the geometric-decay estimate of
   /// the remaining distance is within it too; see sim/steady_state.h).
-  std::string settle_method = "shooting";
+  SettleMethod settle_method = SettleMethod::kShooting;
   double settle_tolerance = 1e-3;  ///< relative to each state's ripple (floors 1 mA / 1 mV)
   int max_newton = 8;              ///< Newton iterations before falling back
   int max_periods = 1000;          ///< periods simulated in all while settling

@@ -93,7 +93,7 @@ TEST(SteadyStateTest, ShootingSolvesAnAffineMapInOneNewtonStep) {
   SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
   ASSERT_TRUE(r.ok) << r.error;
   ASSERT_TRUE(r.settled);
-  EXPECT_EQ(r.method, "shooting");
+  EXPECT_EQ(r.method, SettleMethod::kShooting);
   EXPECT_EQ(r.iterations, 1);
   // 1 base run + 2 Jacobian runs + 1 run at the Newton step.
   EXPECT_EQ(r.periods, 4);
@@ -135,7 +135,7 @@ TEST(SteadyStateTest, PeriodByPeriodReachesTheSameFixedPoint) {
   SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
   ASSERT_TRUE(r.ok) << r.error;
   ASSERT_TRUE(r.settled);
-  EXPECT_EQ(r.method, "periods");
+  EXPECT_EQ(r.method, SettleMethod::kPeriods);
   double fixed[2];
   sim.FixedPoint(fixed);
   // Settled means within the tolerance relative to ripple (floor 1 mV):
@@ -251,7 +251,7 @@ TEST(SteadyStateTest, ShootingWithAControlHoldsTheRegulatedMean) {
       FindRegulatedSteadyState(sim, ControlRenderer(), kVectors, kStates, control, 1e-6, options);
   ASSERT_TRUE(r.ok) << r.error;
   ASSERT_TRUE(r.settled);
-  EXPECT_EQ(r.method, "shooting");
+  EXPECT_EQ(r.method, SettleMethod::kShooting);
   EXPECT_EQ(r.iterations, 1);  // affine in (x, u): one Newton step
   RegulatedFixedPoint want = SolveRegulated(sim, control.target);
   EXPECT_NEAR(r.control, want.u, 1e-6);
@@ -271,7 +271,7 @@ TEST(SteadyStateTest, PeriodByPeriodWithAControlReachesTheSameOperatingPoint) {
       FindRegulatedSteadyState(sim, ControlRenderer(), kVectors, kStates, control, 1e-6, options);
   ASSERT_TRUE(r.ok) << r.error;
   ASSERT_TRUE(r.settled);
-  EXPECT_EQ(r.method, "periods");
+  EXPECT_EQ(r.method, SettleMethod::kPeriods);
   RegulatedFixedPoint want = SolveRegulated(sim, control.target);
   // Settled to the states' tolerance (1e-3 of the scale 1) and the
   // regulation's (1e-4 of 30).
