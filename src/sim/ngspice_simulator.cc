@@ -223,6 +223,10 @@ NgspiceSimulator::NgspiceSimulator() : state_(std::make_unique<State>()) {
     // No data callbacks: they fire once per accepted time point. No
     // background thread callback: runs are in the foreground.
     ngSpice_Init(OnPrintf, OnStatus, OnExit, nullptr, nullptr, nullptr, nullptr);
+    // No "Reference value" progress line: ngspice otherwise reads the process
+    // clock at every stored time point to decide whether to print it, about
+    // a third of a one-period run (DEVELOPERS.md "Per-run overhead").
+    Command("set norefvalue");
   }
 }
 
