@@ -224,8 +224,9 @@ NgspiceSimulator::NgspiceSimulator() : state_(std::make_unique<State>()) {
     // background thread callback: runs are in the foreground.
     ngSpice_Init(OnPrintf, OnStatus, OnExit, nullptr, nullptr, nullptr, nullptr);
     // No "Reference value" progress line: ngspice otherwise reads the process
-    // clock at every stored time point to decide whether to print it, about
-    // a third of a one-period run (DEVELOPERS.md "Per-run overhead").
+    // clock at every stored time point to decide whether to print it
+    // (OUTpData in its src/frontend/outitf.c), about a third of a one-period
+    // run here (DEVELOPERS.md "Per-run overhead").
     Command("set norefvalue");
   }
 }
