@@ -50,7 +50,7 @@ int FindName(const std::string& expr, const std::string& name) {
 // One parser per thread, built once: building a mu::Parser (its built-in
 // functions and operators) cost more than parsing and evaluating a typical
 // .param expression (measured with a profile of `zvsmap run`, 3 December
-// 2026). Each evaluation starts from no variables.
+// 2026). EvaluateExpression clears its variables before each use.
 mu::Parser& ThreadParser() {
   thread_local mu::Parser parser = [] {
     mu::Parser p;
@@ -58,7 +58,6 @@ mu::Parser& ThreadParser() {
     p.DefineConst("_pi", 3.14159265358979323846);
     return p;
   }();
-  parser.ClearVar();
   return parser;
 }
 
@@ -70,6 +69,7 @@ bool EvaluateExpression(const std::string& expr, const Variables& vars, double* 
   std::string normalized = NormalizeSpiceExpression(expr);
   try {
     mu::Parser& parser = ThreadParser();
+    parser.ClearVar();      // the previous call's variables pointed into its own copy
     Variables copy = vars;  // muParser binds variables by address
     for (auto& kv : copy) parser.DefineVar(kv.first, &kv.second);
     parser.SetExpr(normalized);

@@ -463,8 +463,9 @@ std::string HtmlSettings(const ReportInput& input) {
   }
   const SimulationSettings& s = spec.simulation;
   h += "<tr>" + Td("settling") +
-       Td(std::string(SettleMethodName(s.settle_method)) + ", tolerance " + FormatQuantity(s.settle_tolerance, "") + ", at most " +
-          std::to_string(s.max_periods) + " periods") +
+       Td(std::string(SettleMethodName(s.settle_method)) + ", tolerance " +
+          FormatQuantity(s.settle_tolerance, "") + ", at most " + std::to_string(s.max_periods) +
+          " periods") +
        Td("<simulation>") + "</tr>\n";
   const double lead = MeasureLead(spec, input.tmpl);
   const char* lead_from = !std::isnan(s.measure_lead)               ? "<simulation>"

@@ -201,8 +201,7 @@ LoopSetting LoopOf(const Template& tmpl, const Variables& params, const SteadySt
 // The steady-state search as the sweep's <simulation> sets it.
 SteadyStateOptions SettleOptions(const SimulationSettings& sim) {
   SteadyStateOptions options;
-  options.method = sim.settle_method == SettleMethod::kPeriods ? SteadyStateOptions::Method::kPeriods
-                                                  : SteadyStateOptions::Method::kShooting;
+  options.method = sim.settle_method;
   options.tolerance = sim.settle_tolerance;
   options.max_newton = sim.max_newton;
   options.max_periods = sim.max_periods;

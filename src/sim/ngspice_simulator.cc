@@ -226,7 +226,7 @@ NgspiceSimulator::NgspiceSimulator() : state_(std::make_unique<State>()) {
     // No "Reference value" progress line: ngspice otherwise reads the process
     // clock at every stored time point to decide whether to print it
     // (OUTpData in its src/frontend/outitf.c), about a third of a one-period
-    // run here (DEVELOPERS.md "Per-run overhead").
+    // run here (DEVELOPERS.md "The engine's progress line").
     Command("set norefvalue");
   }
 }

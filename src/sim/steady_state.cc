@@ -536,7 +536,7 @@ SteadyStateResult SolveSteadyState(Simulator& simulator, const PeriodRenderer& r
   Iterate best;
   best.z = z;
   best.run.ripple.assign(states.size(), 0);
-  if (options.method == SteadyStateOptions::Method::kShooting) {
+  if (options.method == SettleMethod::kShooting) {
     r.method = SettleMethod::kShooting;
     Matrix jac;
     if (!Newton(shooter, z, unknowns, control, opt, &r, &best, &jac) && !r.ok) return r;

@@ -90,8 +90,7 @@ void BroydenUpdate(const std::vector<double>& dz, const std::vector<double>& df,
 
 /// Limits and tolerances of the search.
 struct SteadyStateOptions {
-  enum class Method { kShooting, kPeriods };
-  Method method = Method::kShooting;
+  SettleMethod method = SettleMethod::kShooting;  ///< kShooting or kPeriods
   /// A state is settled when |x(T) - x(0)| <= max(tolerance * ripple, floor),
   /// ripple = max - min of that state over the period.
   double tolerance = 1e-3;

@@ -48,11 +48,12 @@ std::string PointContentHash(const std::string& canonical_deck, const SweepSpec&
   uint64_t h = Fnv1a64(canonical_deck);
   char buf[320];
   const SimulationSettings& s = spec.simulation;
-  std::snprintf(buf, sizeof buf,
-                "settle=%d measure_lead=%.17g max_step=%.17g reltol=%.17g method=%s tol=%.17g newton=%d "
-                "max_periods=%d",
-                s.settle_periods, MeasureLead(spec, tmpl), s.max_step_s, s.reltol,
-                SettleMethodName(s.settle_method), s.settle_tolerance, s.max_newton, s.max_periods);
+  std::snprintf(
+      buf, sizeof buf,
+      "settle=%d measure_lead=%.17g max_step=%.17g reltol=%.17g method=%s tol=%.17g newton=%d "
+      "max_periods=%d",
+      s.settle_periods, MeasureLead(spec, tmpl), s.max_step_s, s.reltol,
+      SettleMethodName(s.settle_method), s.settle_tolerance, s.max_newton, s.max_periods);
   h = Fnv1a64(kSeparator + buf, h);
   // The ladder setting, only when not the default (hashes of earlier runs stay valid).
   if (s.solver_aid != "auto") h = Fnv1a64(kSeparator + "solver_aid=" + s.solver_aid, h);

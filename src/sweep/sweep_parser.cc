@@ -524,7 +524,8 @@ bool Parser::ParseSimulation(pugi::xml_node node) {
     const std::string text = node.attribute("settle").value();
     if (!SettleMethodFromName(text, &s.settle_method) ||
         (s.settle_method != SettleMethod::kShooting && s.settle_method != SettleMethod::kPeriods)) {
-      return FailAttr(node, "settle", "'settle' must be 'shooting' or 'periods', got '" + text + "'");
+      return FailAttr(node, "settle",
+                      "'settle' must be 'shooting' or 'periods', got '" + text + "'");
     }
   }
   if (node.attribute("settle-tolerance") &&

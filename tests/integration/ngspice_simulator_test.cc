@@ -81,7 +81,7 @@ TEST_F(NgspiceSimulatorTest, TimingsCountRunsAndSamples) {
 
 // ngspice prints a "Reference value" progress line every 0.25 s of process
 // time and, to know when, reads the process clock at every stored time point
-// (about a third of a one-period run, DEVELOPERS.md "Per-run overhead").
+// (about a third of a one-period run, DEVELOPERS.md "The engine's progress line").
 // NgspiceSimulator sets norefvalue, so a run that long prints none. Source:
 // ngspice, src/frontend/outitf.c, OUTpData (a clock() call per stored point
 // unless the variable norefvalue is set), read in ngspice's repository; the

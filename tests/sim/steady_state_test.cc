@@ -131,7 +131,7 @@ TEST(SteadyStateTest, TheSettlingTrialRunIsHandedBackAsTheMeasuredRun) {
 TEST(SteadyStateTest, PeriodByPeriodReachesTheSameFixedPoint) {
   AffineMapSimulator sim;
   SteadyStateOptions options;
-  options.method = SteadyStateOptions::Method::kPeriods;
+  options.method = SettleMethod::kPeriods;
   SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
   ASSERT_TRUE(r.ok) << r.error;
   ASSERT_TRUE(r.settled);
@@ -159,7 +159,7 @@ TEST(SteadyStateTest, PeriodByPeriodDoesNotStopEarlyOnASlowMode) {
   sim.b[0] = 0.1;
   sim.b[1] = 0.05;
   SteadyStateOptions options;
-  options.method = SteadyStateOptions::Method::kPeriods;
+  options.method = SettleMethod::kPeriods;
   options.max_periods = 5000;
   SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
   ASSERT_TRUE(r.ok) << r.error;
@@ -184,7 +184,7 @@ TEST(SteadyStateTest, PeriodByPeriodFollowsALightlyDampedRingToTheFixedPoint) {
   sim.a[1][0] = r0 * std::sin(th);
   sim.a[1][1] = r0 * std::cos(th);
   SteadyStateOptions options;
-  options.method = SteadyStateOptions::Method::kPeriods;
+  options.method = SettleMethod::kPeriods;
   options.max_periods = 5000;
   SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
   ASSERT_TRUE(r.ok) << r.error;
@@ -202,7 +202,7 @@ TEST(SteadyStateTest, SlowMapIsReportedUnsettledWithinThePeriodBudget) {
   sim.a[1][0] = 0;
   sim.a[1][1] = 0.9999;
   SteadyStateOptions options;
-  options.method = SteadyStateOptions::Method::kPeriods;
+  options.method = SettleMethod::kPeriods;
   options.max_periods = 50;
   SteadyStateResult r = FindPeriodicSteadyState(sim, Renderer(), kVectors, kStates, 1e-6, options);
   ASSERT_TRUE(r.ok);
@@ -265,7 +265,7 @@ TEST(SteadyStateTest, PeriodByPeriodWithAControlReachesTheSameOperatingPoint) {
   AffineMapSimulator sim = ControlledMap();
   ControlUnknown control = ControlOnOut();
   SteadyStateOptions options;
-  options.method = SteadyStateOptions::Method::kPeriods;
+  options.method = SettleMethod::kPeriods;
   options.max_periods = 5000;
   SteadyStateResult r =
       FindRegulatedSteadyState(sim, ControlRenderer(), kVectors, kStates, control, 1e-6, options);
